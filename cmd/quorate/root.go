@@ -1,0 +1,153 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"log/slog"
+	"os"
+	"runtime"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+)
+
+// Version is set at build time with -ldflags "-X main.Version=…".
+var Version = "0.1.0-dev"
+
+// Exit codes.
+const (
+	exitOK       = 0
+	exitError    = 1
+	exitUsage    = 2
+	exitWarnings = 3
+)
+
+// globals are the flags every command shares.
+type globals struct {
+	study     string
+	workers   int
+	quiet     bool
+	strict    bool
+	logFormat string
+	log       *slog.Logger
+	argv      []string
+	stdout    io.Writer
+}
+
+type usageError struct{ err error }
+
+func (e usageError) Error() string { return e.err.Error() }
+func (e usageError) Unwrap() error { return e.err }
+
+// warningsError ends a run that finished but met warnings under --strict.
+type warningsError struct{ n int }
+
+func (e warningsError) Error() string {
+	return fmt.Sprintf("finished with %d warning(s) and --strict is set", e.n)
+}
+
+const caution = `quorate is a research and quality tool, not a diagnostic device. Validate any operating
+point locally; clinical decisions rest with qualified clinicians; follow local rules on
+data protection.`
+
+func newRoot(g *globals) *cobra.Command {
+	root := &cobra.Command{
+		Use:   "quorate",
+		Short: "From an EEG archive to a locally tuned IED detector operating point",
+		Long: `quorate helps an epilepsy centre build a local reference set of interictal epileptiform
+discharges (IEDs) rated against the six IFCN criteria, and tune detector cutoffs on it:
+scan the archive, detect candidates, draw a stratified sample, send blinded packets to a
+panel, merge the ratings into a gold standard, tune, and export.
+
+` + caution,
+		Example: `  quorate init my-study --archive /data/eeg
+  quorate --study my-study scan
+  quorate demo --out /tmp/quorate-demo`,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+		PersistentPreRunE: func(cmd *cobra.Command, args []string) error {
+			var h slog.Handler
+			opts := &slog.HandlerOptions{Level: slog.LevelInfo}
+			if g.quiet {
+				opts.Level = slog.LevelWarn
+			}
+			switch g.logFormat {
+			case "text":
+				h = slog.NewTextHandler(os.Stderr, opts)
+			case "json":
+				h = slog.NewJSONHandler(os.Stderr, opts)
+			default:
+				return usageError{fmt.Errorf("--log-format: got %q, want text or json", g.logFormat)}
+			}
+			if g.workers < 1 {
+				return usageError{fmt.Errorf("--workers: got %d, want at least 1", g.workers)}
+			}
+			g.log = slog.New(h)
+			return nil
+		},
+	}
+	pf := root.PersistentFlags()
+	pf.StringVar(&g.study, "study", ".", "study folder (made by quorate init)")
+	pf.IntVar(&g.workers, "workers", runtime.NumCPU(), "parallel workers")
+	pf.BoolVar(&g.quiet, "quiet", false, "no progress bars, warnings and errors only")
+	pf.BoolVar(&g.strict, "strict", false, "exit with code 3 when a command finishes with warnings")
+	pf.StringVar(&g.logFormat, "log-format", "text", "log format: text or json")
+	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
+
+	root.AddCommand(
+		newVersionCmd(g),
+		newInitCmd(g),
+		newScanCmd(g),
+	)
+	return root
+}
+
+// execute runs the CLI and maps the outcome to an exit code.
+func execute(args []string) int {
+	g := &globals{argv: append([]string{"quorate"}, args...), stdout: os.Stdout}
+	root := newRoot(g)
+	root.SetArgs(args)
+	err := root.ExecuteContext(context.Background())
+	if err == nil {
+		return exitOK
+	}
+	fmt.Fprintln(os.Stderr, "quorate:", err)
+	var ue usageError
+	var we warningsError
+	switch {
+	case errors.As(err, &ue) || isCobraUsage(err):
+		fmt.Fprintln(os.Stderr, "Run 'quorate --help' for usage.")
+		return exitUsage
+	case errors.As(err, &we):
+		return exitWarnings
+	default:
+		return exitError
+	}
+}
+
+// isCobraUsage recognises the argument errors cobra raises itself (unknown command,
+// wrong number of arguments), which carry no type of their own.
+func isCobraUsage(err error) bool {
+	msg := err.Error()
+	for _, p := range []string{"unknown command", "accepts ", "requires at least", "requires at most", "unknown flag", "unknown shorthand"} {
+		if strings.Contains(msg, p) {
+			return true
+		}
+	}
+	return false
+}
+
+// openStudy opens the study named by --study.
+func (g *globals) openStudy() (*study.Study, error) { return study.Open(g.study) }
+
+// finish applies --strict to a run's warning count.
+func (g *globals) finish(warnings int) error {
+	if g.strict && warnings > 0 {
+		return warningsError{warnings}
+	}
+	return nil
+}
