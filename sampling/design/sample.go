@@ -1,0 +1,112 @@
+package design
+
+import (
+	"fmt"
+	"math"
+)
+
+// Sample is a stratified sample: one entry per drawn unit, parallel slices.
+type Sample struct {
+	Stratum []string
+	Weight  []float64 // design weight 1/π_i
+
+	// FPC holds the sampling fraction f_h per stratum used in the finite
+	// population correction 1−f_h; a stratum absent from the map has
+	// f_h = 0 (the with-replacement approximation, which overstates the
+	// variance). For stratified simple random sampling f_h = n_h/N_h; for
+	// the capped design of package draw, n_h/N'_h ignores the thinning
+	// stage and is an approximation.
+	FPC map[string]float64
+}
+
+// FieldError reports an input slice or value that does not fit the sample.
+type FieldError struct {
+	Field string
+	Index int // −1 when not tied to one element
+	Msg   string
+}
+
+func (e *FieldError) Error() string {
+	if e.Index < 0 {
+		return fmt.Sprintf("design: %s: %s", e.Field, e.Msg)
+	}
+	return fmt.Sprintf("design: %s[%d]: %s", e.Field, e.Index, e.Msg)
+}
+
+// Estimate is a point estimate with its estimated variance.
+type Estimate struct {
+	Value float64
+	Var   float64
+}
+
+// SE returns the standard error √Var.
+func (e Estimate) SE() float64 { return math.Sqrt(e.Var) }
+
+func (s Sample) check(n int, cols map[string]int) error {
+	if len(s.Stratum) != len(s.Weight) {
+		return &FieldError{Field: "Weight", Index: -1, Msg: fmt.Sprintf("%d weights for %d units", len(s.Weight), len(s.Stratum))}
+	}
+	for name, l := range cols {
+		if l != len(s.Stratum) {
+			return &FieldError{Field: name, Index: -1, Msg: fmt.Sprintf("%d values for %d units", l, len(s.Stratum))}
+		}
+	}
+	for i, w := range s.Weight {
+		if !(w >= 1) || math.IsInf(w, 0) {
+			return &FieldError{Field: "Weight", Index: i, Msg: fmt.Sprintf("weight %v is not 1/π with 0 < π ≤ 1", w)}
+		}
+	}
+	for h, f := range s.FPC {
+		if !(f >= 0 && f <= 1) {
+			return &FieldError{Field: "FPC", Index: -1, Msg: fmt.Sprintf("stratum %q: fraction %v outside [0,1]", h, f)}
+		}
+	}
+	return nil
+}
+
+// groups returns the unit indices of each stratum, strata in first-seen order.
+func (s Sample) groups() [][]int {
+	at := make(map[string]int)
+	var g [][]int
+	for i, h := range s.Stratum {
+		k, ok := at[h]
+		if !ok {
+			k = len(g)
+			at[h] = k
+			g = append(g, nil)
+		}
+		g[k] = append(g[k], i)
+	}
+	return g
+}
+
+// linVar is the stratified variance estimator of a weighted total Σ w_i z_i
+// (with-replacement form within each stratum, times 1−f_h; Särndal,
+// Swensson & Wretman 1992, §§3.7 and 5.5):
+//
+//	v = Σ_h (1−f_h) n_h/(n_h−1) Σ_{i∈h} (w_i z_i − mean_h(w z))².
+//
+// With w_i = N_h/n_h and f_h = n_h/N_h this is the unbiased
+// Σ_h N_h² (1−f_h) s²_zh / n_h (Cochran 1977, §5.3, Theorem 5.3 times N²).
+// A stratum with n_h = 1 contributes 0.
+func (s Sample) linVar(z []float64) float64 {
+	v := 0.0
+	for _, g := range s.groups() {
+		n := float64(len(g))
+		if n < 2 {
+			continue
+		}
+		mean := 0.0
+		for _, i := range g {
+			mean += s.Weight[i] * z[i]
+		}
+		mean /= n
+		ss := 0.0
+		for _, i := range g {
+			d := s.Weight[i]*z[i] - mean
+			ss += d * d
+		}
+		v += (1 - s.FPC[s.Stratum[g[0]]]) * n / (n - 1) * ss
+	}
+	return v
+}
