@@ -43,7 +43,7 @@ reason). The archive is only read. Unchanged files are not read again on a later
 			}
 			if err := s.Record(study.Entry{Version: Version, Command: "scan", Argv: g.argv,
 				Outputs: s.Hash(s.Path(study.IndexDir, archive.IndexFile), s.Path(study.IndexDir, archive.ProblemsFile)),
-				Notes: map[string]any{"roots": roots, "recordings": len(res.Recordings), "problems": len(res.Problems), "reused": res.Reused}}); err != nil {
+				Notes:   map[string]any{"roots": roots, "recordings": len(res.Recordings), "problems": len(res.Problems), "reused": res.Reused}}); err != nil {
 				return err
 			}
 			hours := 0.0
