@@ -103,6 +103,8 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newInitCmd(g),
 		newScanCmd(g),
 		newDrawCmd(g),
+		newMergeCmd(g),
+		newStatusCmd(g),
 	)
 	return root
 }

@@ -1,0 +1,148 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+
+	"github.com/spf13/cobra"
+
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/panel/consensus"
+	"github.com/quorate-eeg/quorate/panel/merge"
+	"github.com/quorate-eeg/quorate/panel/packet"
+	"github.com/quorate-eeg/quorate/sampling/draw"
+)
+
+func newMergeCmd(g *globals) *cobra.Command {
+	var seed uint64
+	cmd := &cobra.Command{
+		Use:   "merge FILE...",
+		Short: "Merge raters' returns into the consensus and the agreement report",
+		Long: `merge checks each returned file (the review page's JSON or the filled sheet.csv) against
+the packets: packet id and check value, rater, every item code and every value. Accepted
+files are stored unchanged under returns/, named by their SHA-256 and read-only; a later
+return of the same packet supersedes the earlier one and both are kept. A refused file is
+reported with every problem and changes nothing.
+
+It then rebuilds consensus/ratings.parquet, consensus/consensus.parquet (votes and
+majority per criterion, criteria present, the panel's verdict, the Dawid–Skene
+probability), consensus/agreement.json and consensus/agreement.md.`,
+		Example: `  quorate --study /studies/ied-2027 merge ~/Downloads/P-rater-a-3f9c01d2.json inbox/rater-b/sheet.csv`,
+		Args:    cobra.MinimumNArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			s, err := g.openStudy()
+			if err != nil {
+				return err
+			}
+			if !cmd.Flags().Changed("seed") {
+				seed = s.Config.Seed
+			}
+			return runMerge(g, s, args, seed)
+		},
+	}
+	cmd.Flags().Uint64Var(&seed, "seed", 0, "seed of the bootstrap intervals (default: study.yaml seed)")
+	return cmd
+}
+
+func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+	if err != nil {
+		return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
+	}
+	if m.Study != s.Config.Study.ID {
+		return fmt.Errorf("%s belongs to study %s, not to this study (%s)", s.Path(study.PacketsDir, "manifest.json"), m.Study, s.Config.Study.ID)
+	}
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	if err != nil {
+		return err
+	}
+	rows, err := draw.ReadRows(s.Path(study.DrawDir, draw.DrawFile))
+	if err != nil {
+		return err
+	}
+	subjectOf := make(map[string]string, len(rows))
+	for _, r := range rows {
+		subjectOf[r.EventID] = r.SubjectKey
+	}
+	tie, err := consensus.ParseTiePolicy(s.Config.Panel.Tie)
+	if err != nil {
+		return err
+	}
+	res, err := merge.Run(merge.Options{Files: files, Manifest: m, Key: key,
+		ReturnsDir: s.Path(study.ReturnsDir), ConsensusDir: s.Path(study.ConsensusDir), SubjectOf: subjectOf,
+		Quorum: s.Config.Panel.Quorum, Tie: tie, Bootstrap: s.Config.Tuning.Bootstrap, Seed: seed, Level: 0.95})
+	var rej *merge.RejectedError
+	if err != nil && !errors.As(err, &rej) {
+		return err
+	}
+	for _, e := range res.Superseded {
+		g.log.Info("superseded", "packet", e.Packet, "rater", e.Rater, "file", e.Stored)
+	}
+	notes := map[string]any{"accepted": len(res.Accepted), "already_stored": len(res.Duplicates), "refused": len(res.Rejected), "events": res.Events}
+	var counting []string
+	for _, e := range res.Accepted {
+		counting = append(counting, e.Packet+"="+e.Stored)
+	}
+	notes["now_counting"] = counting
+	var superseded []string
+	for _, e := range res.Superseded {
+		superseded = append(superseded, e.Packet+"="+e.Stored)
+	}
+	notes["superseded"] = superseded
+	seedCopy := seed
+	if rerr := s.Record(study.Entry{Version: Version, Command: "merge", Argv: g.argv, Seed: &seedCopy,
+		Inputs:  s.Hash(files...),
+		Outputs: s.Hash(s.Path(study.ConsensusDir)), Notes: notes}); rerr != nil {
+		return rerr
+	}
+	fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored, %d superseded); consensus on %d events in %s.\n",
+		len(res.Accepted), len(res.Duplicates), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
+	if res.Agreement != nil {
+		for _, q := range res.Agreement.Questions {
+			fmt.Fprintf(g.stdout, "  %-8s Fleiss' kappa %.2f (%.2f to %.2f), %s\n", q.Question, q.Fleiss.Value, q.Fleiss.Lo, q.Fleiss.Hi, q.FleissBand)
+		}
+	}
+	if rej != nil {
+		return rej
+	}
+	return nil
+}
+
+func newStatusCmd(g *globals) *cobra.Command {
+	return &cobra.Command{
+		Use:     "status",
+		Short:   "Show which packets are out, returned or superseded, and what each rater owes",
+		Example: `  quorate --study /studies/ied-2027 status`,
+		Args:    cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			s, err := g.openStudy()
+			if err != nil {
+				return err
+			}
+			m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+			if err != nil {
+				return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
+			}
+			led, err := merge.ReadLedger(s.Path(study.ReturnsDir, merge.LedgerFile))
+			if err != nil {
+				return err
+			}
+			st := merge.GetStatus(m, led, s.Path(study.ConsensusDir))
+			if err := s.Record(study.Entry{Version: Version, Command: "status", Argv: g.argv,
+				Inputs: s.Hash(s.Path(study.PacketsDir, "manifest.json"), s.Path(study.ReturnsDir, merge.LedgerFile)),
+				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate}}); err != nil {
+				return err
+			}
+			fmt.Fprintf(g.stdout, "%-28s %-16s %-16s %6s %6s %8s %10s\n", "packet", "rater", "state", "items", "owes", "returns", "superseded")
+			for _, p := range st.Packets {
+				fmt.Fprintf(g.stdout, "%-28s %-16s %-16s %6d %6d %8d %10d\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
+			}
+			if st.ConsensusUpToDate {
+				fmt.Fprintln(g.stdout, "The consensus is up to date with the returns.")
+			} else {
+				fmt.Fprintf(g.stdout, "The consensus is not up to date: %s.\n", st.Reason)
+			}
+			return nil
+		},
+	}
+}

@@ -1,0 +1,102 @@
+package synth
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+
+	"github.com/quorate-eeg/quorate/internal/atomicfile"
+	"github.com/quorate-eeg/quorate/sampling/edf"
+)
+
+// Written is one recording written by WriteArchive.
+type Written struct {
+	Subject   Subject
+	Spec      RecordingSpec
+	Path      string  // the EDF+ file
+	TruthPath string  // its truth table (CSV)
+	Truth     []Event // what was inserted
+}
+
+// WriteArchive generates every recording of the fictional archive described by subjects
+// and writes it as EDF+ (one-second data records, 16-bit, 0.1 µV steps) under
+// archiveDir/<subject>/<recording>.edf, with its truth table under
+// truthDir/<recording>_truth.csv — outside the archive, as a centre's own records of
+// truth would be. Labels are written the way acquisition systems often write them
+// ("EEG Fp1-REF"), so the reader's label normalisation is exercised too.
+func WriteArchive(archiveDir, truthDir string, subjects []Subject) ([]Written, error) {
+	var out []Written
+	for _, s := range subjects {
+		for _, spec := range s.Records {
+			w := Written{Subject: s, Spec: spec,
+				Path:      filepath.Join(archiveDir, s.ID, spec.ID+".edf"),
+				TruthPath: filepath.Join(truthDir, spec.ID+"_truth.csv")}
+			truth, err := writeRecording(w.Path, s, spec)
+			if err != nil {
+				return nil, fmt.Errorf("writing %s: %w", w.Path, err)
+			}
+			w.Truth = truth
+			if err := atomicfile.Write(w.TruthPath, 0o644, func(f io.Writer) error { return WriteTruthCSV(f, truth) }); err != nil {
+				return nil, err
+			}
+			out = append(out, w)
+		}
+	}
+	return out, nil
+}
+
+func writeRecording(path string, s Subject, spec RecordingSpec) ([]Event, error) {
+	g, err := NewGenerator(spec.Config)
+	if err != nil {
+		return nil, err
+	}
+	rate := g.Rate()
+	if rate != math.Trunc(rate) {
+		return nil, fmt.Errorf("sample rate %g Hz is not whole: one-second records need whole rates", rate)
+	}
+	labels, kinds := g.Labels(), g.Kinds()
+	sigs := make([]edf.Signal, len(labels))
+	for i, l := range labels {
+		label := "EEG " + l + "-REF"
+		if kinds[i] != EEG {
+			label = l
+		}
+		sigs[i] = edf.Signal{Label: label, Transducer: "AgAgCl electrode", PhysDim: "uV",
+			PhysMin: -3276.8, PhysMax: 3276.7, DigMin: -32768, DigMax: 32767,
+			Prefilter: "HP:0.016Hz LP:100Hz", SamplesPerRecord: int(rate)}
+	}
+	records := int64(math.Ceil(float64(g.Len()) / rate))
+	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+		return nil, err
+	}
+	err = atomicfile.Write(path, 0o644, func(f io.Writer) error {
+		wr, err := edf.NewWriter(f, edf.WriterHeader{Format: edf.EDFPlusC, PatientID: s.PatientID,
+			RecordingID: spec.RecordingID, Start: spec.Start, RecordDuration: 1, NumRecords: records, Signals: sigs})
+		if err != nil {
+			return err
+		}
+		buf := make([][]float32, len(labels))
+		for i := range buf {
+			buf[i] = make([]float32, int(rate))
+		}
+		for r := int64(0); r < records; r++ {
+			n, err := g.Read(buf)
+			if err != nil && err != io.EOF {
+				return err
+			}
+			for i := range buf {
+				clear(buf[i][n:]) // the last record is padded with zeros
+			}
+			if err := wr.WriteRecord(buf); err != nil {
+				return err
+			}
+		}
+		return wr.Close()
+	})
+	if err != nil {
+		return nil, err
+	}
+	return g.Truth(), nil
+}
