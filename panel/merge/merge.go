@@ -250,7 +250,9 @@ func writeParquet[T any](path string, rows []T) error {
 }
 
 // ReadRatings and ReadConsensus read the tables back.
-func ReadRatings(path string) ([]consensus.Rating, error) { return parquet.ReadFile[consensus.Rating](path) }
+func ReadRatings(path string) ([]consensus.Rating, error) {
+	return parquet.ReadFile[consensus.Rating](path)
+}
 
 // ReadConsensus reads consensus.parquet.
 func ReadConsensus(path string) ([]consensus.Event, error) {
