@@ -1,0 +1,10 @@
+// Package report writes what the tuner found: every evaluated point
+// (sweep.parquet), the chosen operating point (operating-point.json), and a
+// self-contained report for the neurophysiologists who will use it
+// (report.html with inline SVG figures, and report.md). It computes nothing
+// new: every number comes from a tuning.Result and, optionally, the panel's
+// consensus.Agreement.
+package report
+
+// Caution is printed near the top of both reports.
+const Caution = "quorate is a research and quality tool, not a diagnostic device. Validate any operating point locally; clinical decisions rest with qualified clinicians; follow local rules on data protection."

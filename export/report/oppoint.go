@@ -1,0 +1,141 @@
+package report
+
+import (
+	"strconv"
+	"time"
+
+	"github.com/quorate-eeg/quorate/internal/jsonx"
+	"github.com/quorate-eeg/quorate/tuning"
+)
+
+// Interval is an estimate with its interval; undefined values are null.
+type Interval struct {
+	Value jsonx.Float `json:"value"`
+	Lo    jsonx.Float `json:"ci_low"`
+	Hi    jsonx.Float `json:"ci_high"`
+}
+
+func iv(e tuning.Estimate) Interval {
+	return Interval{jsonx.Float(e.Value), jsonx.Float(e.Lo), jsonx.Float(e.Hi)}
+}
+
+// RatesJSON are the rates of one estimate family.
+type RatesJSON struct {
+	Sensitivity Interval `json:"sensitivity"`
+	Specificity Interval `json:"specificity"`
+	PPV         Interval `json:"ppv"`
+	NPV         Interval `json:"npv"`
+	Accuracy    Interval `json:"accuracy"`
+	LRPos       Interval `json:"lr_positive"`
+	LRNeg       Interval `json:"lr_negative"`
+	YoudenJ     Interval `json:"youden_j"`
+}
+
+func rates(r tuning.Rates) RatesJSON {
+	return RatesJSON{iv(r.Sens), iv(r.Spec), iv(r.PPV), iv(r.NPV), iv(r.Accuracy), iv(r.LRPos), iv(r.LRNeg), iv(r.Youden)}
+}
+
+// CountsJSON is a 2×2 table.
+type CountsJSON struct {
+	TP jsonx.Float `json:"tp"`
+	FP jsonx.Float `json:"fp"`
+	TN jsonx.Float `json:"tn"`
+	FN jsonx.Float `json:"fn"`
+}
+
+// MetricsJSON is tuning.Metrics for the JSON file.
+type MetricsJSON struct {
+	Counts         CountsJSON `json:"counts"`
+	WeightedCounts CountsJSON `json:"design_weighted_counts"`
+	Unweighted     RatesJSON  `json:"unweighted_wilson"`
+	DesignWeighted RatesJSON  `json:"design_weighted_linearised"`
+	FalsePerHour   Interval   `json:"false_detections_per_hour"`
+	Folds          int        `json:"folds,omitempty"`
+	FoldRules      []string   `json:"fold_rules,omitempty"`
+}
+
+func metrics(m tuning.Metrics) MetricsJSON {
+	c, w := m.Counts, m.Weighted
+	return MetricsJSON{
+		Counts:         CountsJSON{jsonx.Float(c.TP), jsonx.Float(c.FP), jsonx.Float(c.TN), jsonx.Float(c.FN)},
+		WeightedCounts: CountsJSON{jsonx.Float(w.TP), jsonx.Float(w.FP), jsonx.Float(w.TN), jsonx.Float(w.FN)},
+		Unweighted:     rates(m.Plain), DesignWeighted: rates(m.Design), FalsePerHour: iv(m.FalsePerHour),
+	}
+}
+
+// BootstrapJSON holds the subject-bootstrap percentile intervals.
+type BootstrapJSON struct {
+	Replicates   int      `json:"replicates"`
+	Undefined    int      `json:"replicates_with_undefined_rate"`
+	Sensitivity  Interval `json:"sensitivity"`
+	Specificity  Interval `json:"specificity"`
+	PPV          Interval `json:"ppv"`
+	FalsePerHour Interval `json:"false_detections_per_hour"`
+}
+
+// CutoffJSON is one criterion's cutoff.
+type CutoffJSON struct {
+	Criterion int         `json:"criterion"`
+	Feature   string      `json:"feature"`
+	Met       string      `json:"met_when"` // ">=", "<=" or "left out"
+	Value     jsonx.Float `json:"value"`
+}
+
+// OperatingPoint is the content of operating-point.json.
+type OperatingPoint struct {
+	StudyID           string            `json:"study_id"`
+	Version           string            `json:"quorate_version"`
+	Generated         string            `json:"generated"`
+	ReferenceStandard string            `json:"reference_standard"`
+	Policy            string            `json:"policy"`
+	Analysis          string            `json:"analysis"`
+	Rule              string            `json:"rule"`
+	K                 int               `json:"k"`
+	Cutoffs           []CutoffJSON      `json:"cutoffs"`
+	Events            int               `json:"events"`
+	Subjects          int               `json:"subjects"`
+	RecordingHours    jsonx.Float       `json:"recording_hours"`
+	Level             jsonx.Float       `json:"confidence_level"`
+	Seed              string            `json:"seed"`
+	InSample          MetricsJSON       `json:"in_sample"`
+	CrossValidated    *MetricsJSON      `json:"cross_validated"`
+	Bootstrap         *BootstrapJSON    `json:"bootstrap"`
+	InputHashes       map[string]string `json:"input_sha256"`
+	Warnings          []string          `json:"warnings"`
+}
+
+// NewOperatingPoint assembles operating-point.json from a result.
+func NewOperatingPoint(res *tuning.Result, meta Meta) OperatingPoint {
+	f := res.Final
+	op := OperatingPoint{
+		StudyID: meta.StudyID, Version: meta.Version, Generated: meta.Generated.UTC().Format(time.RFC3339),
+		ReferenceStandard: f.Reference, Policy: f.Policy.String(), Analysis: f.Analysis, Rule: f.Rule, K: f.K,
+		Events: res.Events, Subjects: res.Subjects, RecordingHours: jsonx.Float(res.RecordingHours),
+		Level: jsonx.Float(res.Level), Seed: strconv.FormatUint(res.Seed, 10),
+		InSample: metrics(f.InSample), InputHashes: meta.InputHashes, Warnings: res.Warnings,
+	}
+	if op.Warnings == nil {
+		op.Warnings = []string{}
+	}
+	for _, c := range f.Cutoffs {
+		met := "left out"
+		switch c.Direction {
+		case 1:
+			met = ">="
+		case -1:
+			met = "<="
+		}
+		op.Cutoffs = append(op.Cutoffs, CutoffJSON{c.Criterion, c.Feature, met, jsonx.Float(c.Value)})
+	}
+	if f.CV != nil {
+		m := metrics(f.CV.Metrics)
+		m.Folds, m.FoldRules = f.CV.Folds, f.CV.FoldRules
+		op.CrossValidated = &m
+	}
+	if b := f.Bootstrap; b != nil {
+		op.Bootstrap = &BootstrapJSON{b.Replicates, b.Undefined, iv(b.Sens), iv(b.Spec), iv(b.PPV), iv(b.FalsePerHour)}
+	}
+	return op
+}
+
+func kRule(k int) string { return "at least " + strconv.Itoa(k) + " of 6 criteria (panel majority)" }

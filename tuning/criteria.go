@@ -1,0 +1,143 @@
+package tuning
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/tuning/accuracy"
+)
+
+// CriterionROC is analysis (c), first part: one criterion's feature against
+// the panel majority for that criterion, over the events with both a
+// majority decision and a measured feature.
+//
+// The direction is +1 when higher values mean "present" and −1 when lower
+// ones do: it is the direction whose design-weighted AUC is at least ½. The
+// cutoff is the threshold maximising design-weighted Youden's J (Youden 1950,
+// Cancer 3:32–35) whatever the study's policy, because a criterion cutoff is
+// a building block of a rule, not an operating point: the policy is applied
+// to the rule (AutoRule). AUC is unweighted with the DeLong (1988) interval,
+// which has no weighted form; WeightedAUC is the design-weighted area.
+type CriterionROC struct {
+	Criterion   int // 1…6
+	Feature     string
+	N           int
+	Present     int // events whose majority is present
+	Direction   int
+	AUC         Estimate
+	WeightedAUC float64
+	Cutoff      float64 // in the feature's units; the criterion is met at or beyond it
+	AtCutoff    Point
+	Curve       []Point // every threshold, in the feature's units
+	Skipped     string  // why no ROC was drawn, or ""
+}
+
+// criterionFit is a criterion's direction and Youden cutoff on some events.
+type criterionFit struct {
+	dir     float64 // +1 or −1
+	cut     float64 // in direction-adjusted units: met when dir·x ≥ cut
+	ok      bool
+	skip    string
+	th      []float64 // direction-adjusted thresholds
+	plain   []accuracy.Confusion
+	weighed []accuracy.Confusion
+	best    int
+}
+
+// fitCriterion finds the direction and Youden cutoff of feature j against
+// the majority for j.
+func fitCriterion(s *evset, j int, withPlain bool) criterionFit {
+	var x, w []float64
+	var t []bool
+	for i, e := range s.src {
+		v := e.Features[j]
+		if e.Majority[j] == -1 || math.IsNaN(v) {
+			continue
+		}
+		x = append(x, v)
+		t = append(t, e.Majority[j] == 1)
+		w = append(w, s.weight[i])
+	}
+	name := candidate.FeatureNames[j]
+	pos := 0
+	for _, b := range t {
+		if b {
+			pos++
+		}
+	}
+	switch {
+	case len(x) == 0:
+		return criterionFit{skip: fmt.Sprintf("c%d: no event has both a panel decision and a measured %s", j+1, name)}
+	case pos == 0 || pos == len(x):
+		return criterionFit{skip: fmt.Sprintf("c%d: the panel majority is the same for all %d events; no ROC for %s", j+1, len(x), name)}
+	}
+	lo, hi := x[0], x[0]
+	for _, v := range x {
+		lo, hi = math.Min(lo, v), math.Max(hi, v)
+	}
+	if lo == hi {
+		return criterionFit{skip: fmt.Sprintf("c%d: %s is constant (%g) on all %d events; its ROC is skipped and the criterion is left out of the automatic rule", j+1, name, lo, len(x))}
+	}
+	f := criterionFit{dir: 1, ok: true}
+	f.th, f.weighed = accuracy.Counts(x, t, w)
+	if countsAUC(f.weighed) < 0.5 {
+		f.dir = -1
+		for i := range x {
+			x[i] = -x[i]
+		}
+		f.th, f.weighed = accuracy.Counts(x, t, w)
+	}
+	if withPlain {
+		_, f.plain = accuracy.Counts(x, t, nil)
+	}
+	pts := make([]accuracy.Point, len(f.th))
+	for i, c := range f.weighed {
+		pts[i] = accuracy.NewPoint(f.th[i], c, math.NaN())
+	}
+	f.best, _ = accuracy.Choose(pts, accuracy.Policy{Kind: accuracy.Youden})
+	f.cut = f.th[f.best]
+	return f
+}
+
+// countsAUC is the trapezoidal AUC of a Counts curve.
+func countsAUC(cs []accuracy.Confusion) float64 {
+	tpr := make([]float64, len(cs))
+	fpr := make([]float64, len(cs))
+	for i, c := range cs {
+		tpr[i], fpr[i] = c.Sensitivity(), 1-c.Specificity()
+	}
+	return accuracy.AUC(tpr, fpr)
+}
+
+func criterionROC(s *evset, j int, level float64) (CriterionROC, criterionFit) {
+	r := CriterionROC{Criterion: j + 1, Feature: candidate.FeatureNames[j], AUC: pointOnly(math.NaN()), WeightedAUC: math.NaN(), Cutoff: math.NaN()}
+	f := fitCriterion(s, j, true)
+	if !f.ok {
+		r.Skipped = f.skip
+		return r, f
+	}
+	var x []float64
+	var t []bool
+	for _, e := range s.src {
+		if v := e.Features[j]; e.Majority[j] != -1 && !math.IsNaN(v) {
+			x = append(x, f.dir*v)
+			t = append(t, e.Majority[j] == 1)
+			r.N++
+			if e.Majority[j] == 1 {
+				r.Present++
+			}
+		}
+	}
+	auc, v := accuracy.DeLong(x, t)
+	lo, hi := accuracy.DeLongCI(auc, v, level)
+	r.AUC = Estimate{auc, lo, hi}
+	r.WeightedAUC = countsAUC(f.weighed)
+	r.Direction = int(f.dir)
+	r.Cutoff = f.dir * f.cut
+	for i := range f.th {
+		r.Curve = append(r.Curve, Point{Rule: r.Feature, Threshold: f.dir * f.th[i], Counts: f.plain[i], Weighted: f.weighed[i], FalsePerHour: math.NaN()})
+	}
+	r.AtCutoff = r.Curve[f.best]
+	return r, f
+}

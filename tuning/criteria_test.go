@@ -1,0 +1,103 @@
+package tuning
+
+import (
+	"encoding/json"
+	"math"
+	"os"
+	"testing"
+
+	"github.com/quorate-eeg/quorate/tuning/accuracy"
+)
+
+// The criterion ROC's AUC is the Mann–Whitney U/(m·n) with ties counted ½;
+// testdata/mannwhitney.py computes it with scipy.stats.mannwhitneyu.
+func TestCriterionAUCAgainstScipy(t *testing.T) {
+	b, err := os.ReadFile("testdata/mannwhitney.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var ref struct {
+		Feature []float64
+		Present []bool
+		AUC     float64
+	}
+	if err := json.Unmarshal(b, &ref); err != nil {
+		t.Fatal(err)
+	}
+	var ev []Event
+	for i, x := range ref.Feature {
+		e := Event{Subject: "s", Weight: 1, Reference: int8(i % 2)}
+		for j := range 6 {
+			e.Majority[j] = -1
+			e.Features[j] = math.NaN()
+		}
+		e.Features[1] = x
+		e.Majority[1] = 0
+		if ref.Present[i] {
+			e.Majority[1] = 1
+		}
+		ev = append(ev, e)
+	}
+	o := Options{Events: ev}
+	s, _, err := prepare(&o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, _ := criterionROC(s, 1, 0.95)
+	if r.Skipped != "" || r.Direction != 1 {
+		t.Fatalf("skipped %q, direction %d", r.Skipped, r.Direction)
+	}
+	if math.Abs(r.AUC.Value-ref.AUC) > 1e-12 || math.Abs(r.WeightedAUC-ref.AUC) > 1e-12 {
+		t.Errorf("AUC %v (weighted %v), scipy U/(mn) %v", r.AUC.Value, r.WeightedAUC, ref.AUC)
+	}
+	if !(r.AUC.Lo < r.AUC.Value && r.AUC.Value < r.AUC.Hi) {
+		t.Errorf("DeLong interval %+v", r.AUC)
+	}
+	// The cutoff is the Youden-optimal threshold: no other threshold on the
+	// curve has a larger J (Youden 1950).
+	best := math.Inf(-1)
+	for _, p := range r.Curve {
+		best = math.Max(best, p.Weighted.Youden())
+	}
+	if r.AtCutoff.Weighted.Youden() != best {
+		t.Errorf("cutoff J %v, best on curve %v", r.AtCutoff.Weighted.Youden(), best)
+	}
+	// Reversing the feature flips the direction, not the AUC.
+	for i := range ev {
+		ev[i].Features[1] = -ev[i].Features[1]
+	}
+	s, _, _ = prepare(&o)
+	r2, _ := criterionROC(s, 1, 0.95)
+	if r2.Direction != -1 || math.Abs(r2.AUC.Value-ref.AUC) > 1e-12 || r2.Cutoff != -r.Cutoff {
+		t.Errorf("reversed: direction %d, AUC %v, cutoff %v (was %v)", r2.Direction, r2.AUC.Value, r2.Cutoff, r.Cutoff)
+	}
+}
+
+// False detections per hour in the score sweep, closed form: at threshold
+// 0.5 the reference-negative candidates above it weigh 4 + 2 (the control
+// does not count), over 3 hours = 2 per hour.
+func TestScoreFalsePerHour(t *testing.T) {
+	ev := []Event{
+		{Score: 0.9, Reference: 1, Weight: 1, Kind: "candidate"},
+		{Score: 0.8, Reference: 0, Weight: 4, Kind: "candidate"},
+		{Score: 0.7, Reference: 0, Weight: 5, Kind: "control"},
+		{Score: 0.5, Reference: 0, Weight: 2},
+		{Score: 0.2, Reference: 1, Weight: 3, Kind: "candidate"},
+		{Score: 0.1, Reference: 0, Weight: 1, Kind: "candidate"},
+	}
+	o := Options{Events: ev, RecordingHours: 3}
+	s, _, err := prepare(&o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sw, _ := scoreSweep(s, accuracy.Policy{Kind: accuracy.Youden}, 0.95)
+	for _, p := range sw.Curve {
+		if p.Threshold == 0.5 {
+			if p.FalsePerHour != 2 || p.Weighted.FP != 11 || p.Counts.FP != 3 || p.Weighted.TP != 1 {
+				t.Errorf("at 0.5: %+v", p)
+			}
+			return
+		}
+	}
+	t.Error("threshold 0.5 missing")
+}

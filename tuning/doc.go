@@ -1,0 +1,21 @@
+// Package tuning chooses a detector operating point from a rated sample: how
+// many IFCN criteria (Kane et al. 2017, Clinical Neurophysiology Practice
+// 2:170–185) an event must meet, which cutoffs the automatic features need,
+// where to set the detector score, and how good the chosen point honestly is.
+//
+// Run takes plain values — one Event per rated candidate or control, with its
+// design weight, features, panel majorities and reference standard — and
+// returns a Result; it writes nothing (package export/report does).
+//
+// Two kinds of estimate are reported side by side. Unweighted figures describe
+// the rated sample, with Wilson intervals (Newcombe 1998, Statistics in
+// Medicine 17:857–872, method 3). Design-weighted figures project the sample
+// to the archive with the design weights 1/π: combined ratio estimators with
+// their stratified linearised variance (package sampling/design; Cochran 1977,
+// Sampling Techniques, §6.11) and Wald intervals. Operating points are chosen
+// on the design-weighted figures, because those describe the archive the
+// detector will run on. Because choosing a point on the same events it is
+// judged on flatters it, the whole selection is repeated inside
+// subject-grouped cross-validation, and the chosen point's figures get
+// subject-resampled bootstrap intervals.
+package tuning

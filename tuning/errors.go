@@ -1,0 +1,72 @@
+package tuning
+
+import (
+	"fmt"
+	"strings"
+)
+
+// InputError reports an event whose field cannot be used.
+type InputError struct {
+	Index   int    // position in Options.Events
+	EventID string // the event's id, if any
+	Field   string
+	Msg     string
+}
+
+func (e *InputError) Error() string {
+	return fmt.Sprintf("tuning: event %d (%s): %s: %s", e.Index, e.EventID, e.Field, e.Msg)
+}
+
+// NoDataError reports that there is nothing to tune on.
+type NoDataError struct {
+	Msg string
+}
+
+func (e *NoDataError) Error() string { return "tuning: " + e.Msg }
+
+// SingleClassError reports a reference standard with only one class, for
+// which no sensitivity/specificity pair and no ROC curve exist.
+type SingleClassError struct {
+	Reference string
+	Class     string // "IED" or "not IED": the only class present
+	N         int    // events with a reference
+}
+
+func (e *SingleClassError) Error() string {
+	return fmt.Sprintf("tuning: every one of the %d events with a reference (%s) is %s: no ROC curve or operating point is possible; rate events of both classes", e.N, e.Reference, e.Class)
+}
+
+// ReferenceError reports a field of an external reference file that cannot be
+// read, in the manner of encoding/csv's ParseError.
+type ReferenceError struct {
+	File  string
+	Row   int // 1-based line, header is row 1; 0 when not tied to a row
+	Field string
+	Msg   string
+}
+
+func (e *ReferenceError) Error() string {
+	if e.Row == 0 {
+		return fmt.Sprintf("tuning: reference %s: %s: %s", e.File, e.Field, e.Msg)
+	}
+	return fmt.Sprintf("tuning: reference %s, row %d, field %s: %s", e.File, e.Row, e.Field, e.Msg)
+}
+
+// UnknownIDsError lists ids of an external reference file that match no event
+// or subject of the study.
+type UnknownIDsError struct {
+	File   string
+	Column string // "event_id" or "subject_key"
+	IDs    []string
+}
+
+func (e *UnknownIDsError) Error() string {
+	const show = 10
+	ids := e.IDs
+	more := ""
+	if len(ids) > show {
+		more = fmt.Sprintf(" and %d more", len(ids)-show)
+		ids = ids[:show]
+	}
+	return fmt.Sprintf("tuning: reference %s: %d unknown %s value(s): %s%s", e.File, len(e.IDs), e.Column, strings.Join(ids, ", "), more)
+}

@@ -1,0 +1,178 @@
+package tuning
+
+import (
+	"math"
+
+	"github.com/quorate-eeg/quorate/sampling/design"
+	"github.com/quorate-eeg/quorate/tuning/accuracy"
+	"gonum.org/v1/gonum/stat/distuv"
+)
+
+// Estimate is a value with a two-sided interval; Lo and Hi are NaN when no
+// interval is given.
+type Estimate struct {
+	Value, Lo, Hi float64
+}
+
+func pointOnly(v float64) Estimate { return Estimate{v, math.NaN(), math.NaN()} }
+
+// Rates are the accuracy figures of one decision rule.
+type Rates struct {
+	Sens, Spec, PPV, NPV, Accuracy Estimate
+	LRPos, LRNeg                   Estimate // likelihood ratios
+	Youden                         Estimate // J = Sens + Spec − 1
+}
+
+// Metrics describes one operating point on the events it was measured on.
+//
+// Plain: unweighted counts; Sens, Spec, PPV, NPV and Accuracy with Wilson
+// intervals (Newcombe 1998, method 3, via accuracy.Wilson); likelihood
+// ratios with the log-method interval of Simel, Samsa & Matchar (1991,
+// J Clin Epidemiol 44:763–770),
+//
+//	SE(ln LR+) = √(1/TP − 1/(TP+FN) + 1/FP − 1/(FP+TN)),
+//	SE(ln LR−) = √(1/FN − 1/(TP+FN) + 1/TN − 1/(FP+TN));
+//
+// Youden's J with the Wald interval J ± z√(Se(1−Se)/P + Sp(1−Sp)/N)
+// (Youden 1950, Cancer 3:32–35).
+//
+// Design: design-weighted combined ratio estimators (design.Sensitivity,
+// Specificity, PPV and design.Ratio for NPV and accuracy) with their
+// stratified linearised variance, strata as given and no finite population
+// correction (which overstates the variance slightly), and Wald intervals
+// clipped to [0,1]; LRs and J are point estimates from the weighted counts.
+//
+// FalsePerHour is the design-weighted count of reference-negative candidates
+// called positive divided by the recording hours (design.RatePerHour, Wald
+// interval, floor 0); controls do not count.
+type Metrics struct {
+	Counts, Weighted accuracy.Confusion
+	Plain, Design    Rates
+	FalsePerHour     Estimate
+}
+
+// measure computes Metrics of the decisions hit on the events of s.
+func measure(s *evset, hit []bool, level float64) Metrics {
+	m := Metrics{
+		Counts:   accuracy.Tally(hit, s.truth, nil),
+		Weighted: accuracy.Tally(hit, s.truth, s.weight),
+	}
+	c := m.Counts
+	m.Plain = Rates{
+		Sens:     wilson(c.TP, c.TP+c.FN, level),
+		Spec:     wilson(c.TN, c.TN+c.FP, level),
+		PPV:      wilson(c.TP, c.TP+c.FP, level),
+		NPV:      wilson(c.TN, c.TN+c.FN, level),
+		Accuracy: wilson(c.TP+c.TN, c.Total(), level),
+		LRPos:    lrInterval(c.LRPos(), c.TP, c.TP+c.FN, c.FP, c.FP+c.TN, level),
+		LRNeg:    lrInterval(c.LRNeg(), c.FN, c.TP+c.FN, c.TN, c.FP+c.TN, level),
+		Youden:   youdenInterval(c, level),
+	}
+	sm := design.Sample{Stratum: s.stratum, Weight: s.weight}
+	w := m.Weighted
+	ind := func(f func(p, t bool) bool) []float64 {
+		v := make([]float64, len(hit))
+		for i := range hit {
+			if f(hit[i], s.truth[i]) {
+				v[i] = 1
+			}
+		}
+		return v
+	}
+	z := zOf(level)
+	wald := func(e design.Estimate, err error) Estimate {
+		if err != nil {
+			return pointOnly(math.NaN())
+		}
+		h := z * e.SE()
+		return Estimate{e.Value, math.Max(0, e.Value-h), math.Min(1, e.Value+h)}
+	}
+	one := func(bool, bool) bool { return true }
+	m.Design = Rates{
+		Sens:     wald(design.Sensitivity(sm, hit, s.truth)),
+		Spec:     wald(design.Specificity(sm, hit, s.truth)),
+		PPV:      wald(design.PPV(sm, hit, s.truth)),
+		NPV:      wald(design.Ratio(sm, ind(func(p, t bool) bool { return !p && !t }), ind(func(p, _ bool) bool { return !p }))),
+		Accuracy: wald(design.Ratio(sm, ind(func(p, t bool) bool { return p == t }), ind(one))),
+		LRPos:    pointOnly(w.LRPos()),
+		LRNeg:    pointOnly(w.LRNeg()),
+		Youden:   pointOnly(w.Youden()),
+	}
+	fp := make([]float64, len(hit))
+	for i := range hit {
+		if hit[i] && !s.truth[i] && s.candidate[i] {
+			fp[i] = 1
+		}
+	}
+	m.FalsePerHour = pointOnly(math.NaN())
+	if r, err := design.RatePerHour(sm, fp, s.hours); err == nil {
+		h := z * r.SE()
+		m.FalsePerHour = Estimate{r.Value, math.Max(0, r.Value-h), r.Value + h}
+	}
+	return m
+}
+
+func zOf(level float64) float64 { return distuv.UnitNormal.Quantile(1 - (1-level)/2) }
+
+func wilson(x, n, level float64) Estimate {
+	lo, hi := accuracy.Wilson(x, n, level)
+	v := math.NaN()
+	if n > 0 {
+		v = x / n
+	}
+	return Estimate{v, lo, hi}
+}
+
+// lrInterval is the log-method interval of Simel et al. (1991) for a
+// likelihood ratio (a/n1)/(b/n2).
+func lrInterval(lr, a, n1, b, n2, level float64) Estimate {
+	if !(a > 0 && b > 0) || math.IsNaN(lr) || math.IsInf(lr, 0) {
+		return pointOnly(lr)
+	}
+	se := math.Sqrt(1/a - 1/n1 + 1/b - 1/n2)
+	h := zOf(level) * se
+	return Estimate{lr, lr * math.Exp(-h), lr * math.Exp(h)}
+}
+
+func youdenInterval(c accuracy.Confusion, level float64) Estimate {
+	se, sp := c.Sensitivity(), c.Specificity()
+	j := se + sp - 1
+	if math.IsNaN(j) {
+		return pointOnly(j)
+	}
+	h := zOf(level) * math.Sqrt(se*(1-se)/c.Positives()+sp*(1-sp)/c.Negatives())
+	return Estimate{j, math.Max(-1, j-h), math.Min(1, j+h)}
+}
+
+// Point is one evaluated point of a sweep: the rule, its threshold (a score
+// or feature cutoff, or k), and its unweighted and design-weighted counts.
+type Point struct {
+	Rule         string
+	Threshold    float64
+	Counts       accuracy.Confusion
+	Weighted     accuracy.Confusion
+	FalsePerHour float64 // design-weighted false detections among candidates per recording hour
+}
+
+// asPoint is the operating point a policy sees: design-weighted rates.
+func (p Point) asPoint() accuracy.Point {
+	ap := accuracy.NewPoint(p.Threshold, p.Weighted, 1)
+	ap.FalsePerHour = p.FalsePerHour
+	return ap
+}
+
+func asPoints(pts []Point) []accuracy.Point {
+	out := make([]accuracy.Point, len(pts))
+	for i, p := range pts {
+		out[i] = p.asPoint()
+	}
+	return out
+}
+
+// falsePerHour returns fp/hours, NaN without hours.
+func falsePerHour(fp, hours float64) float64 {
+	if !(hours > 0) {
+		return math.NaN()
+	}
+	return fp / hours
+}

@@ -1,0 +1,44 @@
+package tuning
+
+import "github.com/quorate-eeg/quorate/tuning/accuracy"
+
+// OperatingPoint is the final choice: by default the automatic rule "at
+// least K criteria met at these cutoffs" that the policy picked, with its
+// in-sample, cross-validated and bootstrap figures.
+type OperatingPoint struct {
+	Analysis  string // which analysis produced the rule
+	Rule      string // the rule in words
+	Policy    accuracy.Policy
+	Reference string // the reference standard's name
+	K         int
+	Cutoffs   [6]Cutoff
+	// InSample are the figures on the events the rule was chosen on:
+	// optimistic, because the choice saw them.
+	InSample Metrics
+	// CV repeats the whole selection in subject-grouped folds; nil when
+	// there are too few subjects.
+	CV *CrossValidated
+	// Bootstrap holds subject-resampled intervals; nil when skipped.
+	Bootstrap *BootstrapIntervals
+}
+
+// Result is everything Run found.
+type Result struct {
+	Reference      string
+	Policy         accuracy.Policy
+	Level          float64
+	Seed           uint64
+	RecordingHours float64
+	Events         int // events with a reference, used throughout
+	Excluded       int // events left out because their reference is unknown
+	Positives      int // events whose reference is IED
+	Subjects       int
+
+	KSweep   KSweep          // analysis (a)
+	Subsets  Subsets         // analysis (b)
+	Criteria [6]CriterionROC // analysis (c), per criterion
+	Auto     AutoRule        // analysis (c), the joint rule
+	Score    ScoreSweep      // analysis (d)
+	Final    OperatingPoint  // analysis (e) and the choice
+	Warnings []string
+}

@@ -1,0 +1,160 @@
+package tuning
+
+import (
+	"context"
+	"errors"
+	"fmt"
+
+	"github.com/quorate-eeg/quorate/internal/progress"
+	"github.com/quorate-eeg/quorate/tuning/accuracy"
+)
+
+// Run performs the analyses (a)–(e) on the events with a reference and
+// chooses the final operating point, the automatic rule of AutoRule, under
+// o.Policy.
+//
+// Errors: *NoDataError when there are no events or no consensus,
+// *InputError for an unusable event, *SingleClassError when the reference
+// has one class, and an error wrapping *accuracy.NoPointError (with the
+// closest rules) when no automatic rule satisfies the policy. Results are
+// deterministic given the events, options and seed.
+func Run(ctx context.Context, o Options) (*Result, error) {
+	if o.Level == 0 {
+		o.Level = 0.95
+	}
+	if !(o.Level > 0 && o.Level < 1) {
+		return nil, &InputError{Index: -1, Field: "Level", Msg: fmt.Sprintf("confidence level %v outside (0,1)", o.Level)}
+	}
+	if o.Folds == 0 {
+		o.Folds = 5
+	}
+	if o.Bootstrap == 0 {
+		o.Bootstrap = 2000
+	}
+	if o.ReferenceName == "" {
+		o.ReferenceName = "reference standard"
+	}
+	newBar := o.Progress
+	if newBar == nil {
+		newBar = func(int, string) progress.Bar { return progress.Silent{} }
+	}
+	s, excluded, err := prepare(&o)
+	if err != nil {
+		return nil, err
+	}
+	res := &Result{Reference: o.ReferenceName, Policy: o.Policy, Level: o.Level, Seed: o.Seed,
+		RecordingHours: o.RecordingHours, Events: s.n(), Excluded: excluded}
+	for _, t := range s.truth {
+		if t {
+			res.Positives++
+		}
+	}
+	subjects := map[string]bool{}
+	for _, x := range s.subject {
+		subjects[x] = true
+	}
+	res.Subjects = len(subjects)
+	warn := func(format string, a ...any) { res.Warnings = append(res.Warnings, fmt.Sprintf(format, a...)) }
+	if excluded > 0 {
+		warn("%d events without a reference (%s) were left out", excluded, o.ReferenceName)
+	}
+	if !(o.RecordingHours > 0) {
+		warn("recording hours unknown: false detections per hour cannot be given")
+	}
+	var folds [][]int
+	switch k := min(o.Folds, res.Subjects); {
+	case k < 2:
+		warn("only %d subject(s): no cross-validation; the in-sample figures are optimistic", res.Subjects)
+	default:
+		if k < o.Folds {
+			warn("%d folds asked for but only %d subjects: using %d folds", o.Folds, res.Subjects, k)
+		}
+		folds = accuracy.GroupKFold(s.subject, k, o.Seed)
+	}
+
+	res.KSweep = kSweep(s, &o, o.Level)
+	res.Subsets = subsetAnalysis(s, folds, o.Level)
+	for j := range 6 {
+		r, _ := criterionROC(s, j, o.Level)
+		if r.Skipped != "" {
+			res.Warnings = append(res.Warnings, r.Skipped)
+		}
+		res.Criteria[j] = r
+	}
+	var missing int
+	res.Score, missing = scoreSweep(s, o.Policy, o.Level)
+	if missing > 0 {
+		warn("%d events have no detector score and are left out of the score sweep", missing)
+	}
+	if res.Score.N > 0 && res.Score.Chosen < 0 {
+		warn("no detector score threshold meets %s", o.Policy)
+	}
+
+	f, fw, err := fitAuto(s, o.Policy)
+	for _, w := range fw {
+		if !contains(res.Warnings, w) {
+			res.Warnings = append(res.Warnings, w)
+		}
+	}
+	if err != nil {
+		var npe *accuracy.NoPointError
+		if errors.As(err, &npe) {
+			return nil, fmt.Errorf("tuning: automatic rule (at least k criteria at tuned cutoffs): %w", err)
+		}
+		return nil, err
+	}
+	res.Auto = AutoRule{Chosen: f.k - 1, K: f.k, Cutoffs: f.cutoffs(f.cut)}
+	for k := 1; k <= 6; k++ {
+		bk := f.byK[k-1]
+		hits := make([]bool, s.n())
+		for i, e := range s.src {
+			hits[i] = f.hits(e, &bk.cut, k)
+		}
+		c := accuracy.Tally(hits, s.truth, nil)
+		res.Auto.ByK = append(res.Auto.ByK, AutoCandidate{K: k, Cutoffs: f.cutoffs(bk.cut),
+			Point: Point{Rule: f.name(bk.cut, k), Threshold: float64(k), Counts: c, Weighted: bk.w, FalsePerHour: falsePerHour(bk.fp, s.hours)}})
+	}
+
+	hit := make([]bool, s.n())
+	for i, e := range s.src {
+		hit[i] = f.hits(e, &f.cut, f.k)
+	}
+	res.Final = OperatingPoint{
+		Analysis:  "automatic rule: at least k criteria met at tuned feature cutoffs",
+		Rule:      f.name(f.cut, f.k),
+		Policy:    o.Policy,
+		Reference: o.ReferenceName,
+		K:         f.k,
+		Cutoffs:   f.cutoffs(f.cut),
+		InSample:  measure(s, hit, o.Level),
+	}
+	if folds != nil {
+		bar := newBar(len(folds), "cross-validating")
+		cv, cw, err := crossValidateAuto(ctx, s, folds, o.Policy, o.Level, bar)
+		bar.Finish()
+		if err != nil {
+			return nil, err
+		}
+		res.Final.CV = cv
+		res.Warnings = append(res.Warnings, cw...)
+	}
+	if o.Bootstrap > 0 {
+		bar := newBar(o.Bootstrap, "bootstrapping subjects")
+		bi, err := bootstrapPoint(ctx, s, hit, o.Bootstrap, o.Seed, o.Level, bar)
+		bar.Finish()
+		if err != nil {
+			return nil, err
+		}
+		res.Final.Bootstrap = bi
+	}
+	return res, nil
+}
+
+func contains(v []string, s string) bool {
+	for _, x := range v {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
