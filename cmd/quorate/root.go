@@ -105,6 +105,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newDrawCmd(g),
 		newMergeCmd(g),
 		newStatusCmd(g),
+		newTuneCmd(g),
 	)
 	return root
 }

@@ -1,0 +1,226 @@
+package main
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"math"
+	"os"
+	"strings"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/export/report"
+	"github.com/quorate-eeg/quorate/panel/consensus"
+	"github.com/quorate-eeg/quorate/panel/merge"
+	"github.com/quorate-eeg/quorate/sampling/archive"
+	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/sampling/draw"
+	"github.com/quorate-eeg/quorate/tuning"
+	"github.com/quorate-eeg/quorate/tuning/accuracy"
+)
+
+type tuneFlags struct {
+	reference, policy string
+	folds, bootstrap  int
+	seed              uint64
+}
+
+func newTuneCmd(g *globals) *cobra.Command {
+	f := &tuneFlags{}
+	cmd := &cobra.Command{
+		Use:   "tune",
+		Short: "Sweep criteria, cutoffs and detector scores against the reference; report the operating point",
+		Long: `tune reads the consensus, the candidates and the draw and answers what the centre came for:
+how many IFCN criteria (and which) an event must meet, which cutoffs the automatic features
+and the detector need on local data, and how good the result honestly is — with Wilson and
+design-weighted intervals, subject-grouped cross-validation and a subject bootstrap.
+
+The reference standard is the panel's verdict (panel), the Dawid–Skene probability ≥ 0.5
+(dawid-skene), or an external table (external:FILE, columns event_id,reference or
+subject_key,reference). Policies: youden, min-specificity=X, min-sensitivity=X,
+max-false-per-hour=X, cost-ratio=X.
+
+Writes tuning/sweep.parquet, tuning/operating-point.json, tuning/report.html and
+tuning/report.md.`,
+		Example: `  quorate --study /studies/ied-2027 tune
+  quorate --study /studies/ied-2027 tune --policy max-false-per-hour=2 --reference external:video-eeg-diagnoses.csv`,
+		Args: cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			s, err := g.openStudy()
+			if err != nil {
+				return err
+			}
+			set := cmd.Flags().Changed
+			c := s.Config
+			if !set("reference") {
+				f.reference = c.Tuning.Reference
+			}
+			if !set("policy") {
+				f.policy = c.Tuning.Policy
+			}
+			if !set("folds") {
+				f.folds = c.Tuning.Folds
+			}
+			if !set("bootstrap") {
+				f.bootstrap = c.Tuning.Bootstrap
+			}
+			if !set("seed") {
+				f.seed = c.Seed
+			}
+			return runTune(cmd.Context(), g, s, f)
+		},
+	}
+	fl := cmd.Flags()
+	fl.StringVar(&f.reference, "reference", "", "panel | dawid-skene | external:FILE (default: study.yaml)")
+	fl.StringVar(&f.policy, "policy", "", "operating-point policy (default: study.yaml)")
+	fl.IntVar(&f.folds, "folds", 0, "subject-grouped cross-validation folds")
+	fl.IntVar(&f.bootstrap, "bootstrap", 0, "subject bootstrap replicates")
+	fl.Uint64Var(&f.seed, "seed", 0, "random seed (default: study.yaml seed)")
+	return cmd
+}
+
+func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) error {
+	pol, err := accuracy.ParsePolicy(f.policy)
+	if err != nil {
+		return usageError{fmt.Errorf("--policy: %w", err)}
+	}
+	consPath := s.Path(study.ConsensusDir, merge.ConsensusFile)
+	evs, err := merge.ReadConsensus(consPath)
+	if err != nil {
+		return fmt.Errorf("no consensus yet (run quorate merge first): %w", err)
+	}
+	drawPath := s.Path(study.DrawDir, draw.DrawFile)
+	rows, err := draw.ReadRows(drawPath)
+	if err != nil {
+		return fmt.Errorf("no draw yet (run quorate draw first): %w", err)
+	}
+	cands, err := candidate.ReadDir(s.Path(study.CandidatesDir))
+	if err != nil {
+		return err
+	}
+	indexPath := s.Path(study.IndexDir, archive.IndexFile)
+	recs, err := archive.ReadIndex(indexPath)
+	if err != nil {
+		return err
+	}
+	byEvent := make(map[string]*consensus.Event, len(evs))
+	for i := range evs {
+		byEvent[evs[i].EventID] = &evs[i]
+	}
+	byCand := make(map[string]*candidate.Row, len(cands))
+	for i := range cands {
+		byCand[cands[i].EventID] = &cands[i]
+	}
+	var external map[string]int8
+	refName := "panel majority verdict"
+	switch {
+	case f.reference == "dawid-skene":
+		refName = "Dawid–Skene probability ≥ 0.5"
+	case strings.HasPrefix(f.reference, "external:"):
+		path := strings.TrimPrefix(f.reference, "external:")
+		ids := make([]string, len(rows))
+		subj := make(map[string]string, len(rows))
+		for i, r := range rows {
+			ids[i] = r.EventID
+			subj[r.EventID] = r.SubjectKey
+		}
+		if external, err = tuning.ReadExternalReference(path, ids, subj); err != nil {
+			return err
+		}
+		refName = "external reference " + path
+	case f.reference != "panel":
+		return usageError{fmt.Errorf("--reference: got %q, want panel, dawid-skene or external:FILE", f.reference)}
+	}
+	var events []tuning.Event
+	for _, r := range rows {
+		ce := byEvent[r.EventID]
+		if ce == nil {
+			continue // not rated (yet)
+		}
+		e := tuning.Event{EventID: r.EventID, Subject: r.SubjectKey, Recording: r.RecordingID, Stratum: r.Stratum,
+			Kind: r.Kind, Weight: r.Weight, Score: math.NaN()}
+		for i := range e.Features {
+			e.Features[i] = math.NaN()
+		}
+		if c := byCand[r.EventID]; c != nil {
+			e.Features, e.AutoMet, e.Score = c.Features(), c.Met(), c.Score
+			if strings.HasPrefix(c.Source, "import:") {
+				e.Score = c.Imported
+			}
+		}
+		for q, d := range ce.Decisions() {
+			e.Majority[q] = decisionCode(d)
+		}
+		switch {
+		case external != nil:
+			v, ok := external[r.EventID]
+			e.Reference = -1
+			if ok {
+				e.Reference = v
+			}
+		case f.reference == "dawid-skene":
+			e.Reference = tuning.ReferenceFromDS(ce.DSProbability)
+		default:
+			e.Reference = tuning.ReferenceFromPanel(ce.Verdict)
+		}
+		events = append(events, e)
+	}
+	hours := 0.0
+	for _, r := range recs {
+		hours += r.DurationS / 3600
+	}
+	res, err := tuning.Run(ctx, tuning.Options{Events: events, RecordingHours: hours, Policy: pol,
+		Folds: f.folds, Bootstrap: f.bootstrap, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
+	if err != nil {
+		return err
+	}
+	var agr *consensus.Agreement
+	if b, err := os.ReadFile(s.Path(study.ConsensusDir, merge.AgreementJSON)); err == nil {
+		agr = &consensus.Agreement{}
+		if err := json.Unmarshal(b, agr); err != nil {
+			agr = nil
+		}
+	}
+	inputs := s.Hash(consPath, drawPath, indexPath, s.Path(study.CandidatesDir))
+	hashes := map[string]string{}
+	for _, h := range inputs {
+		hashes[h.Path] = h.SHA256
+	}
+	meta := report.Meta{StudyID: s.Config.Study.ID, InputHashes: hashes, Version: Version, Generated: time.Now().UTC()}
+	if err := report.Write(s.Path(study.TuningDir), res, agr, meta); err != nil {
+		return err
+	}
+	for _, w := range res.Warnings {
+		g.log.Warn("tune", "warning", w)
+	}
+	seed := f.seed
+	if err := s.Record(study.Entry{Version: Version, Command: "tune", Argv: g.argv, Seed: &seed, Inputs: inputs,
+		Outputs: s.Hash(s.Path(study.TuningDir)),
+		Notes:   map[string]any{"events": len(events), "reference": refName, "policy": pol.String(), "rule": res.Final.Rule}}); err != nil {
+		return err
+	}
+	fp := res.Final
+	fmt.Fprintf(g.stdout, "Operating point (%s, chosen by %s against the %s):\n  %s\n", fp.Analysis, fp.Policy, refName, fp.Rule)
+	m := fp.InSample
+	fmt.Fprintf(g.stdout, "  sensitivity %s, specificity %s, PPV %s (design-weighted, %.0f %% intervals)\n",
+		estimate(m.Design.Sens), estimate(m.Design.Spec), estimate(m.Design.PPV), 100*res.Level)
+	fmt.Fprintf(g.stdout, "Report: %s\n", s.Path(study.TuningDir, "report.html"))
+	return g.finish(len(res.Warnings))
+}
+
+func decisionCode(d string) int8 {
+	switch d {
+	case "present":
+		return 1
+	case "absent":
+		return 0
+	}
+	return -1
+}
+
+func estimate(e tuning.Estimate) string {
+	return fmt.Sprintf("%.2f (%.2f–%.2f)", e.Value, e.Lo, e.Hi)
+}
