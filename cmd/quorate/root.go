@@ -106,6 +106,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newMergeCmd(g),
 		newStatusCmd(g),
 		newTuneCmd(g),
+		newExportCmd(g),
 	)
 	return root
 }

@@ -194,3 +194,30 @@ func TestWriteNoResult(t *testing.T) {
 		t.Error("nil result accepted")
 	}
 }
+
+func TestOperatingPointDecide(t *testing.T) {
+	op := &OperatingPoint{K: 2, Cutoffs: []CutoffJSON{
+		{Criterion: 1, Met: ">=", Value: 5}, {Criterion: 3, Met: "<=", Value: 1.2}, {Criterion: 6, Met: ">=", Value: 0.8},
+		{Criterion: 2, Met: "left out"},
+	}}
+	nan := math.NaN()
+	cases := []struct {
+		f    [6]float64
+		want bool
+	}{
+		{[6]float64{6, 0, 1.0, 0, 0, 0.5}, true},  // c1 and c3 met
+		{[6]float64{6, 99, 2.0, 0, 0, 0.5}, false}, // only c1 (c2 left out)
+		{[6]float64{nan, 0, 1.0, 0, 0, 0.9}, true}, // c3 and c6
+		{[6]float64{5, 0, 1.2, 0, 0, nan}, true},   // cutoffs are inclusive
+		{[6]float64{nan, 0, nan, 0, 0, 0.9}, false},
+	}
+	for _, c := range cases {
+		got, ok := op.Decide(c.f)
+		if !ok || got != c.want {
+			t.Errorf("Decide(%v) = %v, %v; want %v", c.f, got, ok, c.want)
+		}
+	}
+	if _, ok := (&OperatingPoint{K: 4, Cutoffs: []CutoffJSON{{Criterion: 1, Met: "left out"}}}).Decide([6]float64{}); ok {
+		t.Error("a point without cutoffs claimed a decision")
+	}
+}

@@ -1,0 +1,289 @@
+package excerpt
+
+import (
+	"fmt"
+	"math"
+	"path/filepath"
+	"slices"
+	"sort"
+
+	"github.com/quorate-eeg/quorate/internal/progress"
+	"github.com/quorate-eeg/quorate/panel/packet"
+	"github.com/quorate-eeg/quorate/sampling/archive"
+	"github.com/quorate-eeg/quorate/sampling/draw"
+	"github.com/quorate-eeg/quorate/sampling/edf"
+	"github.com/quorate-eeg/quorate/sampling/headmodel"
+	"github.com/quorate-eeg/quorate/sampling/headmodel/spline"
+	"github.com/quorate-eeg/quorate/sampling/signal"
+)
+
+// Options configure Cut.
+type Options struct {
+	Rows       []draw.Row
+	Recordings []archive.Recording
+	Roots      []string // archive roots; Recording.Root indexes them
+	WindowS    float64  // seconds shown, centred on the event (default 10)
+	MaxRate    float64  // traces are decimated to at most this rate (default 128 Hz)
+	Bandpass   [2]float64
+	NotchHz    float64
+	MapSize    int // voltage-map grid (default 40)
+	Progress   func(total int, desc string) progress.Bar
+}
+
+// MissingError names drawn recordings that are no longer where the index says.
+type MissingError struct{ Paths []string }
+
+func (e *MissingError) Error() string {
+	return fmt.Sprintf("%d recording(s) of the draw are missing from the archive since the scan: %v (run quorate scan, or restore them)", len(e.Paths), e.Paths)
+}
+
+// marginS is read on each side of a window so the forward–backward filter's edge
+// transients fall outside what the rater sees.
+const marginS = 3
+
+// Cut returns one item per drawn row, in draw order, and warnings. The electrode set is
+// the standard electrodes present in every recording of the draw, so that every item of
+// a packet can share one montage.
+func Cut(o Options) ([]packet.Item, []string, error) {
+	if o.WindowS <= 0 {
+		o.WindowS = 10
+	}
+	if o.MaxRate <= 0 {
+		o.MaxRate = 128
+	}
+	if o.MapSize <= 0 {
+		o.MapSize = 40
+	}
+	recs := map[string]archive.Recording{}
+	for _, r := range o.Recordings {
+		recs[r.RecordingID] = r
+	}
+	var missing []string
+	needed := map[string]bool{}
+	for _, r := range o.Rows {
+		rec, ok := recs[r.RecordingID]
+		if !ok {
+			return nil, nil, fmt.Errorf("draw row %s: recording %s is not in the index", r.EventID, r.RecordingID)
+		}
+		if !needed[r.RecordingID] {
+			needed[r.RecordingID] = true
+			if _, err := statFile(pathOf(o.Roots, rec)); err != nil {
+				missing = append(missing, pathOf(o.Roots, rec))
+			}
+		}
+	}
+	if len(missing) > 0 {
+		sort.Strings(missing)
+		return nil, nil, &MissingError{missing}
+	}
+	electrodes, warnings := commonElectrodes(o.Rows, recs)
+	if len(electrodes) < 3 {
+		return nil, warnings, fmt.Errorf("the drawn recordings share only %d standard electrodes %v; at least 3 are needed", len(electrodes), electrodes)
+	}
+	pos, _ := headmodel.Positions(electrodes)
+	ip, err := spline.New(pos, spline.DefaultOrder, 1e-5, spline.DefaultTerms)
+	if err != nil {
+		return nil, warnings, err
+	}
+	marks := make([]packet.MapElectrode, len(pos))
+	for i, p := range pos {
+		th := math.Acos(max(-1, min(1, p[2])))
+		az := math.Atan2(p[0], p[1])
+		marks[i] = packet.MapElectrode{Name: electrodes[i], X: th / spline.DefaultEdge * math.Sin(az), Y: th / spline.DefaultEdge * math.Cos(az)}
+	}
+	byRec := map[string][]int{}
+	for i, r := range o.Rows {
+		byRec[r.RecordingID] = append(byRec[r.RecordingID], i)
+	}
+	ids := make([]string, 0, len(byRec))
+	for id := range byRec {
+		ids = append(ids, id)
+	}
+	sort.Strings(ids)
+	bar := progress.Bar(progress.Silent{})
+	if o.Progress != nil {
+		bar = o.Progress(len(o.Rows), "cutting excerpts")
+	}
+	defer bar.Finish()
+	items := make([]packet.Item, len(o.Rows))
+	for _, id := range ids {
+		rec := recs[id]
+		rd, err := edf.Open(pathOf(o.Roots, rec))
+		if err != nil {
+			return nil, warnings, err
+		}
+		c, err := newCutter(rd, electrodes, o)
+		if err != nil {
+			rd.Close()
+			return nil, warnings, fmt.Errorf("%s: %w", pathOf(o.Roots, rec), err)
+		}
+		for _, i := range byRec[id] {
+			r := o.Rows[i]
+			it, err := c.item(r.OnsetS)
+			if err != nil {
+				rd.Close()
+				return nil, warnings, fmt.Errorf("%s, event at %.3f s: %w", pathOf(o.Roots, rec), r.OnsetS, err)
+			}
+			it.EventID = r.EventID
+			it.Source = map[string]string{"subject": r.SubjectKey, "recording": r.RecordingID,
+				"onset_s": fmt.Sprintf("%.4f", r.OnsetS), "stratum": r.Stratum, "kind": r.Kind}
+			it.Map = mapOf(ip, it, electrodes, marks, o.MapSize)
+			items[i] = it
+			bar.Add(1)
+		}
+		rd.Close()
+	}
+	return items, warnings, nil
+}
+
+func pathOf(roots []string, r archive.Recording) string {
+	if int(r.Root) < len(roots) {
+		return filepath.Join(roots[r.Root], filepath.FromSlash(r.Path))
+	}
+	return filepath.FromSlash(r.Path)
+}
+
+// standard is the 10-20 set in display order (Jasper 1958; 10-10 names).
+var standard = []string{"Fp1", "Fp2", "F7", "F3", "Fz", "F4", "F8", "T7", "C3", "Cz", "C4", "T8", "P7", "P3", "Pz", "P4", "P8", "O1", "O2"}
+
+func commonElectrodes(rows []draw.Row, recs map[string]archive.Recording) ([]string, []string) {
+	count := map[string]int{}
+	n := 0
+	seen := map[string]bool{}
+	for _, r := range rows {
+		if seen[r.RecordingID] {
+			continue
+		}
+		seen[r.RecordingID] = true
+		n++
+		for _, e := range recs[r.RecordingID].EEGChannels {
+			count[e]++
+		}
+	}
+	var out, warn []string
+	for _, e := range standard {
+		switch {
+		case count[e] == n:
+			out = append(out, e)
+		case count[e] > 0:
+			warn = append(warn, fmt.Sprintf("electrode %s is missing from %d of %d drawn recordings and is left out of every packet", e, n-count[e], n))
+		}
+	}
+	return out, warn
+}
+
+// cutter reads windows of one recording.
+type cutter struct {
+	rd     *edf.Reader
+	sig    []int
+	fs     float64
+	factor int
+	rate   float64
+	sos    signal.SOS
+	window int // samples shown at the recording's rate
+	margin int
+}
+
+func newCutter(rd *edf.Reader, electrodes []string, o Options) (*cutter, error) {
+	h := rd.Header()
+	c := &cutter{rd: rd}
+	for _, e := range electrodes {
+		idx := -1
+		for i, s := range h.Signals {
+			if s.Kind == edf.EEG && s.Name == e {
+				idx = i
+				break
+			}
+		}
+		if idx < 0 {
+			return nil, fmt.Errorf("electrode %s not found", e)
+		}
+		fs := h.Signals[idx].SampleRate(h.RecordDuration)
+		if c.fs != 0 && fs != c.fs {
+			return nil, fmt.Errorf("electrodes sampled at different rates (%g and %g Hz)", c.fs, fs)
+		}
+		c.fs = fs
+		c.sig = append(c.sig, idx)
+	}
+	c.factor = max(1, int(math.Floor(c.fs/o.MaxRate)))
+	c.rate = c.fs / float64(c.factor)
+	lo, hi := o.Bandpass[0], o.Bandpass[1]
+	if lo <= 0 {
+		lo = 0.5
+	}
+	if hi <= 0 || hi > 0.45*c.rate {
+		hi = 0.45 * c.rate // also the anti-aliasing filter of the decimation
+	}
+	sos, err := signal.Butterworth(signal.BandPass, 2, c.fs, lo, hi)
+	if err != nil {
+		return nil, err
+	}
+	if o.NotchHz > 0 && o.NotchHz < c.fs/2 {
+		n, err := signal.Notch(o.NotchHz, 30, c.fs)
+		if err != nil {
+			return nil, err
+		}
+		sos = signal.Cascade(sos, n)
+	}
+	c.sos = sos
+	c.window = int(math.Round(o.WindowS * c.fs))
+	c.margin = int(marginS * c.fs)
+	return c, nil
+}
+
+func (c *cutter) item(onset float64) (packet.Item, error) {
+	n := c.rd.NumRecords() * int64(c.rd.Header().Signals[c.sig[0]].SamplesPerRecord)
+	start := int64(math.Round(onset*c.fs)) - int64(c.window/2)
+	from := start - int64(c.margin)
+	total := c.window + 2*c.margin
+	out := packet.Item{Rate: c.rate, EventAt: float64(c.window/2) / c.fs}
+	buf := make([]float32, total)
+	for _, s := range c.sig {
+		clear(buf)
+		lo := max(from, 0)
+		hi := min(from+int64(total), n)
+		if hi > lo {
+			if _, err := c.rd.ReadSignal(s, lo, buf[lo-from:hi-from]); err != nil {
+				return out, err
+			}
+		}
+		if err := signal.FiltFilt32(c.sos, buf); err != nil {
+			return out, err
+		}
+		shown := buf[c.margin : c.margin+c.window]
+		dec := make([]float32, 0, c.window/c.factor+1)
+		for j := 0; j < len(shown); j += c.factor {
+			dec = append(dec, shown[j])
+		}
+		out.Samples = append(out.Samples, dec)
+	}
+	return out, nil
+}
+
+// mapOf interpolates the common-average map at the event sample.
+func mapOf(ip *spline.Interpolator, it packet.Item, electrodes []string, marks []packet.MapElectrode, size int) packet.VoltageMap {
+	j := int(math.Round(it.EventAt * it.Rate))
+	v := make([]float64, len(electrodes))
+	mean := 0.0
+	for i := range v {
+		if j < len(it.Samples[i]) {
+			v[i] = float64(it.Samples[i][j])
+		}
+		mean += v[i]
+	}
+	mean /= float64(len(v))
+	for i := range v {
+		v[i] -= mean
+	}
+	g, err := ip.Grid(v, size)
+	if err != nil {
+		return packet.VoltageMap{}
+	}
+	vals := make([]float32, 0, size*size)
+	for _, row := range g {
+		for _, x := range row {
+			vals = append(vals, float32(x))
+		}
+	}
+	return packet.VoltageMap{Size: size, Values: vals, Electrodes: slices.Clone(marks)}
+}

@@ -1,0 +1,282 @@
+package packet
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io/fs"
+	"math"
+	"math/rand/v2"
+	"os"
+	"path/filepath"
+	"strings"
+)
+
+// Result describes what Build wrote.
+type Result struct {
+	Manifest Manifest
+	Key      []KeyRow
+	Packets  []Written
+}
+
+// Written is one rater's packet on disk.
+type Written struct {
+	Rater, Packet string
+	Dir           string // OutDir/<rater>
+	Page, Sheet   string // paths of review.html and sheet.csv
+	PageBytes     int64
+}
+
+// Build writes, under opt.OutDir, one folder per rater holding review.html
+// and sheet.csv, plus key.parquet and manifest.json for the coordinator.
+// The output depends only on items and opt: equal inputs give equal bytes.
+func Build(items []Item, opt Options) (*Result, error) {
+	if err := validate(items, opt); err != nil {
+		return nil, err
+	}
+	montages := opt.Montages
+	if montages == nil {
+		montages = DefaultMontages(items[0].Electrodes)
+	}
+	if err := prepareOut(opt); err != nil {
+		return nil, err
+	}
+
+	// Traces are the same for every rater: encode once.
+	res := orDefault(opt.Resolution, DefaultResolution)
+	enc := make([]pageItem, len(items))
+	eventIDs := make([]string, len(items))
+	for i, it := range items {
+		eventIDs[i] = it.EventID
+		t := encodeTraces(it.Samples, res)
+		enc[i] = pageItem{Rate: it.Rate, N: len(it.Samples[0]), EventAt: it.EventAt, Scale: t.Scale, Traces: t.Data}
+		if it.Map.Size > 0 {
+			s, v := encodeMap(it.Map.Values)
+			pm := &pageMap{Size: it.Map.Size, Scale: s, Values: v, Electrodes: []pageMapElec{}}
+			for _, e := range it.Map.Electrodes {
+				pm.Electrodes = append(pm.Electrodes, pageMapElec{e.Name, e.X, e.Y})
+			}
+			enc[i].Map = pm
+		}
+	}
+	pm := make([]pageMontage, len(montages))
+	for i, m := range montages {
+		pm[i].Name = m.Name
+		for _, d := range m.Derivations {
+			minus := d.Minus
+			if minus == nil {
+				minus = []int{}
+			}
+			pm[i].Derivations = append(pm[i].Derivations, pageDeriv{d.Label, d.Plus, minus})
+		}
+	}
+
+	out := &Result{Manifest: Manifest{Format: ManifestFormat, Version: 1, Study: opt.StudyID}}
+	share := opt.duplicateShare()
+	for r, rater := range opt.Raters {
+		pid := PacketID(opt.Secret, opt.StudyID, rater, opt.Seed, eventIDs)
+		// One stream per rater, so adding a rater leaves the others' orders alone.
+		rng := rand.New(rand.NewPCG(opt.Seed, uint64(r)+1))
+		order := drawOrder(len(items), share, rng)
+		codes := make([]string, len(order))
+		seen := make(map[string]bool, len(order))
+		d := pageData{
+			Format: PageFormat, Version: 1, Study: opt.StudyID, Packet: pid, Rater: rater,
+			Sensitivity: orDefault(opt.Sensitivity, DefaultSensitivity),
+			TimeBase:    orDefault(opt.TimeBase, DefaultTimeBase),
+			Electrodes:  items[0].Electrodes, Montages: pm,
+		}
+		for k, s := range order {
+			var c string
+			for attempt := 0; ; attempt++ {
+				c = ItemCode(opt.Secret, pid, items[s.item].EventID, s.copy, attempt)
+				if !seen[c] {
+					break
+				}
+			}
+			seen[c] = true
+			codes[k] = c
+			pi := enc[s.item]
+			pi.Code = c
+			d.Items = append(d.Items, pi)
+			out.Key = append(out.Key, KeyRow{
+				Packet: pid, Rater: rater, Item: c, EventID: items[s.item].EventID,
+				Duplicate: s.copy == 1, Position: int32(k + 1), Source: sourceJSON(items[s.item].Source),
+			})
+		}
+		check := CheckValue(opt.Secret, opt.StudyID, pid, rater, codes)
+		d.Check = check
+		html, err := page(&d)
+		if err != nil {
+			return nil, err
+		}
+		dir := filepath.Join(opt.OutDir, rater)
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return nil, err
+		}
+		w := Written{Rater: rater, Packet: pid, Dir: dir, Page: filepath.Join(dir, "review.html"), Sheet: filepath.Join(dir, "sheet.csv"), PageBytes: int64(len(html))}
+		if err := os.WriteFile(w.Page, html, 0o644); err != nil {
+			return nil, err
+		}
+		if err := os.WriteFile(w.Sheet, sheet(pid, check, rater, codes), 0o644); err != nil {
+			return nil, err
+		}
+		out.Packets = append(out.Packets, w)
+		out.Manifest.Packets = append(out.Manifest.Packets, ManifestEntry{Packet: pid, Rater: rater, Check: check, Items: codes})
+	}
+	if err := writeKey(filepath.Join(opt.OutDir, "key.parquet"), out.Key); err != nil {
+		return nil, err
+	}
+	mb, err := json.MarshalIndent(out.Manifest, "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	if err := os.WriteFile(filepath.Join(opt.OutDir, "manifest.json"), append(mb, '\n'), 0o644); err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+// prepareOut refuses, or with Replace moves aside, every output that exists.
+func prepareOut(opt Options) error {
+	if err := os.MkdirAll(opt.OutDir, 0o755); err != nil {
+		return err
+	}
+	names := append([]string{"key.parquet", "manifest.json"}, opt.Raters...)
+	var existing []string
+	for _, n := range names {
+		p := filepath.Join(opt.OutDir, n)
+		if _, err := os.Lstat(p); err == nil {
+			existing = append(existing, p)
+		} else if !errors.Is(err, fs.ErrNotExist) {
+			return err
+		}
+	}
+	if len(existing) > 0 && !opt.Replace {
+		return &ExistsError{Path: existing[0]}
+	}
+	for _, p := range existing {
+		if err := moveAside(p); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// moveAside renames p to the first free p.replaced-<n>, n from 1, keeping it.
+func moveAside(p string) error {
+	for n := 1; ; n++ {
+		dst := fmt.Sprintf("%s.replaced-%d", p, n)
+		if _, err := os.Lstat(dst); errors.Is(err, fs.ErrNotExist) {
+			return os.Rename(p, dst)
+		}
+	}
+}
+
+func validate(items []Item, opt Options) error {
+	optErr := func(field, reason string) error { return &InputError{Item: -1, Field: field, Reason: reason} }
+	switch {
+	case len(items) == 0:
+		return optErr("items", "no items")
+	case opt.StudyID == "" || len(opt.StudyID) > 64 || strings.ContainsFunc(opt.StudyID, func(r rune) bool { return r < ' ' || r == 0x7f }):
+		return optErr("StudyID", "want 1–64 printable characters")
+	case len(opt.Secret) < 16:
+		return optErr("Secret", "want at least 16 bytes")
+	case len(opt.Raters) == 0:
+		return optErr("Raters", "no raters")
+	case len(opt.Raters) > MaxRaters:
+		return optErr("Raters", fmt.Sprintf("%d raters, at most %d", len(opt.Raters), MaxRaters))
+	case opt.DuplicateShare > 0.5 || math.IsNaN(opt.DuplicateShare):
+		return optErr("DuplicateShare", "want at most 0.5")
+	case opt.Resolution < 0 || opt.Sensitivity < 0 || opt.TimeBase < 0:
+		return optErr("Resolution/Sensitivity/TimeBase", "must not be negative")
+	case opt.OutDir == "":
+		return optErr("OutDir", "empty")
+	}
+	seen := map[string]bool{}
+	for _, r := range opt.Raters {
+		if !SafeName(r) {
+			return optErr("Raters", fmt.Sprintf("%q is not a safe folder name ([A-Za-z0-9._-], 1–40 characters, not starting with a dot)", r))
+		}
+		if strings.HasPrefix(strings.ToLower(r), "key.parquet") || strings.HasPrefix(strings.ToLower(r), "manifest.json") {
+			return optErr("Raters", fmt.Sprintf("%q clashes with a coordinator file", r))
+		}
+		if seen[strings.ToLower(r)] {
+			return optErr("Raters", fmt.Sprintf("%q given twice (names are compared ignoring case)", r))
+		}
+		seen[strings.ToLower(r)] = true
+	}
+	ids := map[string]bool{}
+	nel := len(items[0].Electrodes)
+	for i, it := range items {
+		e := func(field, reason string) error { return &InputError{Item: i, Field: field, Reason: reason} }
+		switch {
+		case it.EventID == "":
+			return e("EventID", "empty")
+		case ids[it.EventID]:
+			return e("EventID", fmt.Sprintf("%q given twice", it.EventID))
+		case !(it.Rate > 0) || math.IsInf(it.Rate, 0):
+			return e("Rate", "want a positive rate")
+		case len(it.Electrodes) == 0:
+			return e("Electrodes", "none")
+		case !equalStrings(it.Electrodes, items[0].Electrodes):
+			return e("Electrodes", "differ from item 0; every item must share one list")
+		case len(it.Samples) != len(it.Electrodes):
+			return e("Samples", fmt.Sprintf("%d traces for %d electrodes", len(it.Samples), len(it.Electrodes)))
+		case len(it.Samples[0]) == 0:
+			return e("Samples", "empty traces")
+		case !(it.EventAt >= 0) || it.EventAt > float64(len(it.Samples[0]))/it.Rate:
+			return e("EventAt", "outside the window")
+		case it.Map.Size < 0 || len(it.Map.Values) != it.Map.Size*it.Map.Size:
+			return e("Map", fmt.Sprintf("%d values for a %d×%d grid", len(it.Map.Values), it.Map.Size, it.Map.Size))
+		}
+		ids[it.EventID] = true
+		for c, ch := range it.Samples {
+			if len(ch) != len(it.Samples[0]) {
+				return e(fmt.Sprintf("Samples[%d]", c), "length differs from Samples[0]")
+			}
+			for k, v := range ch {
+				if math.IsNaN(float64(v)) || math.IsInf(float64(v), 0) {
+					return e(fmt.Sprintf("Samples[%d][%d]", c, k), "not finite")
+				}
+			}
+		}
+	}
+	for mi, m := range opt.Montages {
+		for di, d := range m.Derivations {
+			for _, x := range append([]int{d.Plus}, d.Minus...) {
+				if x < 0 || x >= nel {
+					return optErr(fmt.Sprintf("Montages[%d].Derivations[%d]", mi, di), fmt.Sprintf("electrode index %d outside 0..%d", x, nel-1))
+				}
+			}
+		}
+	}
+	return nil
+}
+
+// SafeName reports whether s is usable as a rater folder name on every
+// common file system: [A-Za-z0-9._-], 1–40 characters, not starting with a dot.
+func SafeName(s string) bool {
+	if len(s) == 0 || len(s) > 40 || s[0] == '.' {
+		return false
+	}
+	for _, r := range s {
+		ok := r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || r == '.' || r == '_' || r == '-'
+		if !ok {
+			return false
+		}
+	}
+	return true
+}
+
+func equalStrings(a, b []string) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return false
+		}
+	}
+	return true
+}

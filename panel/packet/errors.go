@@ -1,0 +1,27 @@
+package packet
+
+import "fmt"
+
+// InputError reports a Build input that cannot be used. Item is the index of
+// the offending item, or -1 when the problem is in Options.
+type InputError struct {
+	Item   int
+	Field  string
+	Reason string
+}
+
+func (e *InputError) Error() string {
+	if e.Item < 0 {
+		return fmt.Sprintf("packet: option %s: %s", e.Field, e.Reason)
+	}
+	return fmt.Sprintf("packet: item %d: %s: %s", e.Item, e.Field, e.Reason)
+}
+
+// ExistsError reports an output that already exists and Replace was not set.
+type ExistsError struct {
+	Path string
+}
+
+func (e *ExistsError) Error() string {
+	return fmt.Sprintf("packet: %s already exists (set Replace to move it aside)", e.Path)
+}

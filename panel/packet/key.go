@@ -1,0 +1,43 @@
+package packet
+
+import (
+	"encoding/json"
+	"maps"
+	"slices"
+
+	"github.com/parquet-go/parquet-go"
+)
+
+// KeyRow is one row of key.parquet: which event hides behind an item code.
+type KeyRow struct {
+	Packet    string `parquet:"packet"`
+	Rater     string `parquet:"rater"`
+	Item      string `parquet:"item"`
+	EventID   string `parquet:"event_id"`
+	Duplicate bool   `parquet:"duplicate"` // the second copy of a hidden duplicate
+	Position  int32  `parquet:"position"`  // 1-based place in the rater's order
+	Source    string `parquet:"source"`    // Item.Source as JSON with sorted keys
+}
+
+// ReadKey reads a key written by Build.
+func ReadKey(path string) ([]KeyRow, error) {
+	return parquet.ReadFile[KeyRow](path)
+}
+
+func writeKey(path string, rows []KeyRow) error {
+	return parquet.WriteFile(path, rows)
+}
+
+// sourceJSON encodes provenance with sorted keys so the key is reproducible.
+func sourceJSON(src map[string]string) string {
+	if len(src) == 0 {
+		return ""
+	}
+	type kv struct{ K, V string }
+	var out []kv
+	for _, k := range slices.Sorted(maps.Keys(src)) {
+		out = append(out, kv{k, src[k]})
+	}
+	b, _ := json.Marshal(out) // strings always encode
+	return string(b)
+}

@@ -1,0 +1,67 @@
+package packet
+
+// Options configures Build.
+type Options struct {
+	// StudyID names the study; it is shown in the page and returned by raters
+	// so a return for another study is refused.
+	StudyID string
+	// Secret keys every code, packet id and check value (HMAC-SHA256). At
+	// least 16 bytes; keep it on the coordinator side.
+	Secret []byte
+	// Raters are folder-safe names: [A-Za-z0-9._-], 1–40 characters, not
+	// starting with a dot; at most MaxRaters, no two equal ignoring case.
+	Raters []string
+	// DuplicateShare is the share of items shown twice to each rater under
+	// different codes, to measure intra-rater agreement. Zero means 0.10;
+	// a negative value means no duplicates; at most 0.5.
+	DuplicateShare float64
+	// Seed drives the order and the choice of duplicates.
+	Seed uint64
+	// Montages offered in the page, the first shown first. Nil means
+	// DefaultMontages of the items' electrodes.
+	Montages []Montage
+	// Resolution is the quantisation step of stored traces in µV; zero means
+	// DefaultResolution. A larger step is used when an item's range needs it.
+	Resolution float64
+	// Sensitivity (µV/mm) and TimeBase (mm/s) the page opens with; zero
+	// means 7 µV/mm and 30 mm/s.
+	Sensitivity, TimeBase float64
+	// Replace allows an existing packet folder, key or manifest to be moved
+	// aside (to <name>.replaced-<n>) instead of refusing.
+	Replace bool
+	// OutDir is the packets folder.
+	OutDir string
+}
+
+const (
+	// MaxRaters bounds a build; a panel larger than this is more likely a
+	// mistake than a design.
+	MaxRaters = 50
+	// DefaultDuplicateShare is the share of hidden duplicates per packet.
+	DefaultDuplicateShare = 0.10
+	// DefaultResolution is the trace quantisation step in µV: about one CSS
+	// pixel at 1 µV/mm, the most sensitive setting the page offers, and
+	// 1/28 mm at the default 7 µV/mm, so steps never show; coarser steps
+	// would, finer ones only grow the packet. // common practice
+	DefaultResolution = 0.25
+	// DefaultSensitivity in µV/mm and DefaultTimeBase in mm/s. // common practice
+	DefaultSensitivity = 7
+	DefaultTimeBase    = 30
+)
+
+func (o Options) duplicateShare() float64 {
+	switch {
+	case o.DuplicateShare == 0:
+		return DefaultDuplicateShare
+	case o.DuplicateShare < 0:
+		return 0
+	}
+	return o.DuplicateShare
+}
+
+func orDefault(v, d float64) float64 {
+	if v == 0 {
+		return d
+	}
+	return v
+}

@@ -1,0 +1,150 @@
+package returns
+
+import (
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"fmt"
+	"io"
+	"slices"
+	"strings"
+
+	"github.com/quorate-eeg/quorate/panel/packet"
+)
+
+// requiredColumns must be in a sheet; confidence and comment may be dropped.
+var requiredColumns = []string{"packet", "check", "rater", "item", "c1", "c2", "c3", "c4", "c5", "c6", "verdict"}
+
+// Spreadsheet users type answers by hand, so cells are trimmed, compared
+// ignoring case, and these short forms are accepted.
+var (
+	presenceAlias = map[string]string{"present": "present", "p": "present", "absent": "absent", "a": "absent"}
+	verdictAlias  = map[string]string{"epileptiform": "epileptiform", "e": "epileptiform",
+		"not-epileptiform": "not-epileptiform", "not epileptiform": "not-epileptiform", "n": "not-epileptiform"}
+)
+
+// readCSV extracts a filled sheet (RFC 4180; encoding/csv). Columns are
+// matched by header name in any order; the packet, check and rater repeated
+// on each row must agree across rows.
+func readCSV(data []byte, add func(int, string, string, string)) (h head, out []raw) {
+	r := csv.NewReader(bytes.NewReader(data))
+	r.FieldsPerRecord = -1
+	var col map[string]int
+	var header []string
+	firstRow := map[string]int{}
+	for errs := 0; errs < 50; {
+		rec, err := r.Read()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		var pe *csv.ParseError
+		if errors.As(err, &pe) {
+			add(pe.StartLine, fmt.Sprintf("column %d", pe.Column), pe.Err.Error(), "well-formed CSV (RFC 4180)")
+			errs++
+			continue
+		} else if err != nil {
+			add(0, "(csv)", err.Error(), "well-formed CSV")
+			return h, out
+		}
+		line, _ := r.FieldPos(0)
+		if col == nil {
+			header = rec
+			col = readHeader(rec, line, add)
+			if col == nil {
+				return h, nil
+			}
+			continue
+		}
+		if blankRecord(rec) {
+			continue // spreadsheets append empty rows
+		}
+		if len(rec) != len(header) {
+			add(line, "", fmt.Sprintf("%d fields", len(rec)), fmt.Sprintf("%d fields, as in the header", len(header)))
+			continue
+		}
+		cell := func(name string) string {
+			if i, ok := col[name]; ok {
+				return strings.TrimSpace(rec[i])
+			}
+			return ""
+		}
+		for _, f := range []struct {
+			name string
+			dst  *string
+		}{{"packet", &h.packet}, {"check", &h.check}, {"rater", &h.rater}} {
+			v := cell(f.name)
+			switch {
+			case firstRow[f.name] == 0:
+				*f.dst, firstRow[f.name] = v, line
+			case v != *f.dst:
+				add(line, f.name, v, fmt.Sprintf("%q as on row %d: one sheet per packet", *f.dst, firstRow[f.name]))
+			}
+		}
+		a := raw{row: line, itemPath: "item", item: strings.ToUpper(cell("item")), comment: cell("comment"), conf: cell("confidence")}
+		for k := range a.crit {
+			a.crit[k] = normalise(cell(fmt.Sprintf("c%d", k+1)), presenceAlias)
+		}
+		a.verdict = normalise(cell("verdict"), verdictAlias)
+		out = append(out, a)
+	}
+	switch {
+	case col == nil:
+		add(1, "", "no header row", "the header "+strings.Join(packet.SheetColumns, ","))
+	case len(firstRow) == 0:
+		add(0, "", "a header and no rows", "one row per item code, as in the sheet sent out")
+	case h.packet == "":
+		add(firstRow["packet"], "packet", "", "the packet id printed in the sheet")
+	}
+	return h, out
+}
+
+func readHeader(rec []string, line int, add func(int, string, string, string)) map[string]int {
+	col := map[string]int{}
+	bad := false
+	for i, name := range rec {
+		n := strings.ToLower(strings.TrimSpace(name))
+		switch {
+		case !slices.Contains(packet.SheetColumns, n):
+			add(line, fmt.Sprintf("column %d", i+1), name, "a known column, "+listed(packet.SheetColumns)+" (extra columns are refused so that no answer is silently dropped)")
+			bad = true
+		case hasKey(col, n):
+			add(line, fmt.Sprintf("column %d", i+1), name, "each column once")
+			bad = true
+		default:
+			col[n] = i
+		}
+	}
+	for _, n := range requiredColumns {
+		if !hasKey(col, n) {
+			add(line, n, "no such column", "the column "+n)
+			bad = true
+		}
+	}
+	if bad {
+		return nil
+	}
+	return col
+}
+
+func hasKey(m map[string]int, k string) bool {
+	_, ok := m[k]
+	return ok
+}
+
+func blankRecord(rec []string) bool {
+	for _, c := range rec {
+		if strings.TrimSpace(c) != "" {
+			return false
+		}
+	}
+	return true
+}
+
+// normalise maps a hand-typed cell to its canonical value; an unknown value
+// is passed on unchanged so the checker reports it as typed.
+func normalise(v string, alias map[string]string) string {
+	if c, ok := alias[strings.ToLower(v)]; ok {
+		return c
+	}
+	return v
+}
