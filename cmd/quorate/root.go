@@ -103,6 +103,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newInitCmd(g),
 		newScanCmd(g),
 		newDrawCmd(g),
+		newPacketsCmd(g),
 		newMergeCmd(g),
 		newStatusCmd(g),
 		newTuneCmd(g),

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"io/fs"
 	"math"
 	"math/rand/v2"
@@ -115,10 +116,10 @@ func Build(items []Item, opt Options) (*Result, error) {
 			return nil, err
 		}
 		w := Written{Rater: rater, Packet: pid, Dir: dir, Page: filepath.Join(dir, "review.html"), Sheet: filepath.Join(dir, "sheet.csv"), PageBytes: int64(len(html))}
-		if err := os.WriteFile(w.Page, html, 0o644); err != nil {
+		if err := atomicfile.WriteBytes(w.Page, html, 0o644); err != nil {
 			return nil, err
 		}
-		if err := os.WriteFile(w.Sheet, sheet(pid, check, rater, codes), 0o644); err != nil {
+		if err := atomicfile.WriteBytes(w.Sheet, sheet(pid, check, rater, codes), 0o644); err != nil {
 			return nil, err
 		}
 		out.Packets = append(out.Packets, w)
@@ -131,7 +132,7 @@ func Build(items []Item, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := os.WriteFile(filepath.Join(opt.OutDir, "manifest.json"), append(mb, '\n'), 0o644); err != nil {
+	if err := atomicfile.WriteBytes(filepath.Join(opt.OutDir, "manifest.json"), append(mb, '\n'), 0o644); err != nil {
 		return nil, err
 	}
 	return out, nil

@@ -1,7 +1,10 @@
 package packet
 
 import (
+	"io"
+
 	"encoding/json"
+	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"maps"
 	"slices"
 
@@ -25,7 +28,13 @@ func ReadKey(path string) ([]KeyRow, error) {
 }
 
 func writeKey(path string, rows []KeyRow) error {
-	return parquet.WriteFile(path, rows)
+	return atomicfile.Write(path, 0o600, func(w io.Writer) error {
+		pw := parquet.NewGenericWriter[KeyRow](w)
+		if _, err := pw.Write(rows); err != nil {
+			return err
+		}
+		return pw.Close()
+	})
 }
 
 // sourceJSON encodes provenance with sorted keys so the key is reproducible.

@@ -1,0 +1,147 @@
+package main
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/panel/excerpt"
+	"github.com/quorate-eeg/quorate/panel/packet"
+	"github.com/quorate-eeg/quorate/sampling/archive"
+	"github.com/quorate-eeg/quorate/sampling/draw"
+)
+
+type packetsFlags struct {
+	raters    string
+	seed      uint64
+	replace   bool
+	duplicate float64
+	window    float64
+}
+
+func newPacketsCmd(g *globals) *cobra.Command {
+	f := &packetsFlags{}
+	cmd := &cobra.Command{
+		Use:   "packets",
+		Short: "Build one blinded rating packet per rater from the draw",
+		Long: `packets builds, under packets/, one folder per rater with review.html (a self-contained
+page that works offline, opened from disk) and sheet.csv (the same items for raters who
+prefer a spreadsheet), plus key.parquet and manifest.json for the coordinator only.
+
+Each rater sees the drawn events in an independent random order under opaque item codes;
+no patient, recording, file name, date, time of day, detector score, feature, stratum or
+other rater's answer reaches a packet. A share of items appears twice under different
+codes, to measure each rater's agreement with themself. Each packet carries a check value
+keyed with the study secret so that returns can be matched and tampering detected.
+
+--raters takes a number (fictional names rater-1 … rater-N) or a list of folder-safe names.`,
+		Example: `  quorate --study /studies/ied-2027 packets --raters amara,bjorn,chidi,dana,emeka,farah,goran
+  quorate --study /studies/ied-2027 packets --raters 5 --replace`,
+		Args: cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			s, err := g.openStudy()
+			if err != nil {
+				return err
+			}
+			c := s.Config
+			set := cmd.Flags().Changed
+			if !set("raters") {
+				f.raters = strings.Join(c.Panel.Raters, ",")
+			}
+			if !set("seed") {
+				f.seed = c.Seed
+			}
+			if !set("duplicate-share") {
+				f.duplicate = c.Panel.DuplicateShare
+			}
+			if !set("window") {
+				f.window = c.Panel.WindowS
+			}
+			return runPackets(g, s, f)
+		},
+	}
+	fl := cmd.Flags()
+	fl.StringVar(&f.raters, "raters", "", "number of raters, or their names separated by commas (default: study.yaml panel.raters)")
+	fl.Uint64Var(&f.seed, "seed", 0, "random seed of orders and codes (default: study.yaml seed)")
+	fl.BoolVar(&f.replace, "replace", false, "rebuild existing packets, keeping the old folders beside the new")
+	fl.Float64Var(&f.duplicate, "duplicate-share", 0, "share of items shown twice (default: study.yaml)")
+	fl.Float64Var(&f.window, "window", 0, "seconds shown around each event (default: study.yaml)")
+	return cmd
+}
+
+// parseRaters reads "5" or "ana,ben,cas".
+func parseRaters(s string) ([]string, error) {
+	s = strings.TrimSpace(s)
+	if s == "" {
+		return nil, fmt.Errorf("no raters: give --raters N or --raters name,name,… (or panel.raters in study.yaml)")
+	}
+	if n, err := strconv.Atoi(s); err == nil {
+		if n < 1 || n > packet.MaxRaters {
+			return nil, fmt.Errorf("--raters: got %d, want 1 to %d", n, packet.MaxRaters)
+		}
+		out := make([]string, n)
+		for i := range out {
+			out[i] = fmt.Sprintf("rater-%d", i+1)
+		}
+		return out, nil
+	}
+	var out []string
+	for _, name := range strings.Split(s, ",") {
+		name = strings.TrimSpace(name)
+		if !packet.SafeName(name) {
+			return nil, fmt.Errorf("--raters: %q is not a safe folder name (letters, digits, '.', '_' and '-', 1–40 characters, not starting with '.')", name)
+		}
+		out = append(out, name)
+	}
+	return out, nil
+}
+
+func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
+	raters, err := parseRaters(f.raters)
+	if err != nil {
+		return usageError{err}
+	}
+	drawPath := s.Path(study.DrawDir, draw.DrawFile)
+	rows, err := draw.ReadRows(drawPath)
+	if err != nil {
+		return fmt.Errorf("no draw yet (run quorate draw first): %w", err)
+	}
+	indexPath := s.Path(study.IndexDir, archive.IndexFile)
+	recs, err := archive.ReadIndex(indexPath)
+	if err != nil {
+		return err
+	}
+	secret, err := s.Secret()
+	if err != nil {
+		return err
+	}
+	c := s.Config
+	items, warns, err := excerpt.Cut(excerpt.Options{Rows: rows, Recordings: recs, Roots: c.Archive.Roots, WindowS: f.window,
+		Bandpass: c.Signal.Bandpass, NotchHz: c.Signal.NotchHz, Progress: g.progress})
+	if err != nil {
+		return err
+	}
+	for _, w := range warns {
+		g.log.Warn("packets", "warning", w)
+	}
+	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
+		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir)})
+	if err != nil {
+		return err
+	}
+	seed := f.seed
+	if err := s.Record(study.Entry{Version: Version, Command: "packets", Argv: g.argv, Seed: &seed,
+		Inputs: s.Hash(drawPath, indexPath), Outputs: s.Hash(s.Path(study.PacketsDir)),
+		Notes:  map[string]any{"raters": raters, "items": len(items)}}); err != nil {
+		return err
+	}
+	fmt.Fprintf(g.stdout, "Built %d packets of %d events:\n", len(res.Packets), len(items))
+	for _, p := range res.Packets {
+		fmt.Fprintf(g.stdout, "  %-16s %s (%.1f MB) and %s\n", p.Rater, p.Page, float64(p.PageBytes)/1e6, p.Sheet)
+	}
+	fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, "key.parquet"))
+	return g.finish(len(warns))
+}
