@@ -135,7 +135,7 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	seed := f.seed
 	if err := s.Record(study.Entry{Version: Version, Command: "packets", Argv: g.argv, Seed: &seed,
 		Inputs: s.Hash(drawPath, indexPath), Outputs: s.Hash(s.Path(study.PacketsDir)),
-		Notes:  map[string]any{"raters": raters, "items": len(items)}}); err != nil {
+		Notes: map[string]any{"raters": raters, "items": len(items)}}); err != nil {
 		return err
 	}
 	fmt.Fprintf(g.stdout, "Built %d packets of %d events:\n", len(res.Packets), len(items))

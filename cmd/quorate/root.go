@@ -102,6 +102,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newVersionCmd(g),
 		newInitCmd(g),
 		newScanCmd(g),
+		newDetectCmd(g),
 		newDrawCmd(g),
 		newPacketsCmd(g),
 		newMergeCmd(g),

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"fmt"
 
 	"github.com/spf13/cobra"
@@ -27,36 +28,40 @@ reason). The archive is only read. Unchanged files are not read again on a later
 			if err != nil {
 				return err
 			}
-			secret, err := s.Secret()
-			if err != nil {
-				return err
-			}
-			if len(roots) == 0 {
-				roots = s.Config.Archive.Roots
-			}
-			res, err := archive.Run(cmd.Context(), archive.Options{
-				Roots: roots, Secret: secret, IndexDir: s.Path(study.IndexDir), Workers: g.workers,
-				Progress: g.progress,
-			})
-			if err != nil {
-				return err
-			}
-			if err := s.Record(study.Entry{Version: Version, Command: "scan", Argv: g.argv,
-				Outputs: s.Hash(s.Path(study.IndexDir, archive.IndexFile), s.Path(study.IndexDir, archive.ProblemsFile)),
-				Notes:   map[string]any{"roots": roots, "recordings": len(res.Recordings), "problems": len(res.Problems), "reused": res.Reused}}); err != nil {
-				return err
-			}
-			hours := 0.0
-			for _, r := range res.Recordings {
-				hours += r.DurationS / 3600
-			}
-			fmt.Fprintf(g.stdout, "Indexed %d recordings (%.1f h; %d unchanged since the last scan); %d problem(s) in %s.\n",
-				len(res.Recordings), hours, res.Reused, len(res.Problems), s.Path(study.IndexDir, archive.ProblemsFile))
-			return g.finish(res.Warnings)
+			return runScan(cmd.Context(), g, s, roots)
 		},
 	}
 	cmd.Flags().StringArrayVar(&roots, "archive", nil, "archive root to scan instead of study.yaml's (repeatable)")
 	return cmd
+}
+
+func runScan(ctx context.Context, g *globals, s *study.Study, roots []string) error {
+	secret, err := s.Secret()
+	if err != nil {
+		return err
+	}
+	if len(roots) == 0 {
+		roots = s.Config.Archive.Roots
+	}
+	res, err := archive.Run(ctx, archive.Options{
+		Roots: roots, Secret: secret, IndexDir: s.Path(study.IndexDir), Workers: g.workers,
+		Progress: g.progress,
+	})
+	if err != nil {
+		return err
+	}
+	if err := s.Record(study.Entry{Version: Version, Command: "scan", Argv: g.argv,
+		Outputs: s.Hash(s.Path(study.IndexDir, archive.IndexFile), s.Path(study.IndexDir, archive.ProblemsFile)),
+		Notes:   map[string]any{"roots": roots, "recordings": len(res.Recordings), "problems": len(res.Problems), "reused": res.Reused}}); err != nil {
+		return err
+	}
+	hours := 0.0
+	for _, r := range res.Recordings {
+		hours += r.DurationS / 3600
+	}
+	fmt.Fprintf(g.stdout, "Indexed %d recordings (%.1f h; %d unchanged since the last scan); %d problem(s) in %s.\n",
+		len(res.Recordings), hours, res.Reused, len(res.Problems), s.Path(study.IndexDir, archive.ProblemsFile))
+	return g.finish(res.Warnings)
 }
 
 // progress makes a bar unless --quiet is set or standard error is not a terminal.

@@ -39,6 +39,20 @@ var ErrExists = errors.New("a study already exists here")
 // Init creates a study in dir: the commented protocol and a 256-bit secret readable by
 // the owner only. It refuses to touch a folder that already has a study.
 func Init(dir string, roots []string, seed uint64) error {
+	var idb [8]byte
+	if _, err := rand.Read(idb[:]); err != nil {
+		return err
+	}
+	var secret [32]byte
+	if _, err := rand.Read(secret[:]); err != nil {
+		return err
+	}
+	return InitWith(dir, roots, seed, "st-"+hex.EncodeToString(idb[:]), secret[:])
+}
+
+// InitWith is Init with a given study id and secret. Only the demo uses it, so that a
+// fictional study is the same for the same seed; a real study's secret must be random.
+func InitWith(dir string, roots []string, seed uint64, id string, secret []byte) error {
 	if _, err := os.Stat(filepath.Join(dir, ConfigFile)); err == nil {
 		return fmt.Errorf("%s: %w (remove study.yaml by hand to start over)", dir, ErrExists)
 	}
@@ -60,17 +74,12 @@ func Init(dir string, roots []string, seed uint64) error {
 		}
 		abs[i] = a
 	}
-	var idb [8]byte
-	if _, err := rand.Read(idb[:]); err != nil {
-		return err
-	}
-	var secret [32]byte
-	if _, err := rand.Read(secret[:]); err != nil {
-		return err
+	if len(secret) != 32 {
+		return fmt.Errorf("study secret: %d bytes, want 32", len(secret))
 	}
 	var buf bytes.Buffer
 	err := protocolTemplate.Execute(&buf, map[string]any{
-		"ID": "st-" + hex.EncodeToString(idb[:]), "Name": filepath.Base(dir), "Roots": abs, "Seed": seed,
+		"ID": id, "Name": filepath.Base(dir), "Roots": abs, "Seed": seed,
 	})
 	if err != nil {
 		return err
@@ -78,7 +87,7 @@ func Init(dir string, roots []string, seed uint64) error {
 	if err := os.MkdirAll(filepath.Join(dir, ".quorate"), 0o700); err != nil {
 		return err
 	}
-	if err := atomicfile.Create(filepath.Join(dir, SecretFile), []byte(hex.EncodeToString(secret[:])+"\n"), 0o600); err != nil {
+	if err := atomicfile.Create(filepath.Join(dir, SecretFile), []byte(hex.EncodeToString(secret)+"\n"), 0o600); err != nil {
 		return err
 	}
 	return atomicfile.Create(filepath.Join(dir, ConfigFile), buf.Bytes(), 0o644)
