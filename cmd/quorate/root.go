@@ -109,6 +109,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newStatusCmd(g),
 		newTuneCmd(g),
 		newExportCmd(g),
+		newDemoCmd(g),
 	)
 	return root
 }

@@ -124,7 +124,7 @@ func Cut(o Options) ([]packet.Item, []string, error) {
 				rd.Close()
 				return nil, warnings, fmt.Errorf("%s, event at %.3f s: %w", pathOf(o.Roots, rec), r.OnsetS, err)
 			}
-			it.EventID = r.EventID
+			it.EventID, it.Electrodes = r.EventID, electrodes
 			it.Source = map[string]string{"subject": r.SubjectKey, "recording": r.RecordingID,
 				"onset_s": fmt.Sprintf("%.4f", r.OnsetS), "stratum": r.Stratum, "kind": r.Kind}
 			it.Map = mapOf(ip, it, electrodes, marks, o.MapSize)

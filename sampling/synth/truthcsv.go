@@ -3,6 +3,8 @@ package synth
 import (
 	"encoding/csv"
 	"io"
+	"math"
+	"sort"
 	"strconv"
 )
 
@@ -48,4 +50,20 @@ func WriteTruthCSV(w io.Writer, evs []Event) error {
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+// Nearest returns the truth event whose peak lies closest to onset, within tol seconds.
+// evs must be sorted by onset, as Generate returns them.
+func Nearest(evs []Event, onset, tol float64) (Event, bool) {
+	i := sort.Search(len(evs), func(i int) bool { return evs[i].Onset >= onset })
+	best, ok := Event{}, false
+	bestD := tol
+	for _, j := range []int{i - 1, i} {
+		if j >= 0 && j < len(evs) {
+			if d := math.Abs(evs[j].Onset - onset); d <= bestD {
+				best, ok, bestD = evs[j], true, d
+			}
+		}
+	}
+	return best, ok
 }

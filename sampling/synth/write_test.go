@@ -85,3 +85,18 @@ func TestWriteArchiveReadsBack(t *testing.T) {
 		}
 	}
 }
+
+func TestNearest(t *testing.T) {
+	evs := []Event{{ID: "a", Onset: 1}, {ID: "b", Onset: 2}, {ID: "c", Onset: 2.03}}
+	cases := []struct {
+		at   float64
+		want string
+		ok   bool
+	}{{1.02, "a", true}, {2.02, "c", true}, {1.5, "", false}, {0, "", false}, {2.07, "c", true}, {2.09, "", false}}
+	for _, c := range cases {
+		e, ok := Nearest(evs, c.at, 0.05)
+		if ok != c.ok || e.ID != c.want {
+			t.Errorf("Nearest(%v) = %q, %v; want %q, %v", c.at, e.ID, ok, c.want, c.ok)
+		}
+	}
+}

@@ -51,13 +51,13 @@ criteria_cutoffs:
 
 draw:
   n: 300                      # events for the panel
-  strata: 'score:q5,region'   # columns; numeric ones binned by quantiles (q5) or edges
-  allocation: proportional    # equal | proportional | neyman | table:FILE
-  min_per_stratum: 5
+  strata: 'score:q4,lobe'     # columns; numeric ones binned by quantiles (q4) or edges
+  allocation: equal           # equal | proportional | neyman | table:FILE (equal oversamples rare strata; weights correct for it)
+  min_per_stratum: 2
   subject_cap: 25             # at most this many events per subject and stratum
   controls: 30                # background epochs away from any candidate
-  control_epoch_s: 2
-  control_min_distance_s: 5
+  control_epoch_s: 1
+  control_min_distance_s: 2
 
 panel:
   raters: []                  # folder-safe names, e.g. [rater-a, rater-b, rater-c]
