@@ -103,6 +103,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newInitCmd(g),
 		newScanCmd(g),
 		newDetectCmd(g),
+		newImportEventsCmd(g),
 		newDrawCmd(g),
 		newPacketsCmd(g),
 		newMergeCmd(g),
