@@ -39,8 +39,11 @@ type Rates struct {
 // Design: design-weighted combined ratio estimators (design.Sensitivity,
 // Specificity, PPV and design.Ratio for NPV and accuracy) with their
 // stratified linearised variance, strata as given and no finite population
-// correction (which overstates the variance slightly), and Wald intervals
-// clipped to [0,1]; LRs and J are point estimates from the weighted counts.
+// correction (which overstates the variance slightly), turned into Wilson
+// intervals on the effective sample size (Korn & Graubard 1998, Survey
+// Methodology 24:193–201): n_eff = p(1−p)/v̂ capped at the denominator's
+// count, or Kish's (Σw)²/Σw² where p is 0 or 1; LRs and J are point estimates
+// from the weighted counts.
 //
 // FalsePerHour is the design-weighted count of reference-negative candidates
 // called positive divided by the recording hours (design.RatePerHour, Wald
@@ -80,20 +83,50 @@ func measure(s *evset, hit []bool, level float64) Metrics {
 		return v
 	}
 	z := zOf(level)
-	wald := func(e design.Estimate, err error) Estimate {
-		if err != nil {
-			return pointOnly(math.NaN())
+	// wald turns a design-weighted proportion into a Wilson interval on its effective
+	// sample size (Korn & Graubard 1998): n_eff = p(1−p)/v̂, capped at the number of
+	// events in the denominator; where v̂ or p(1−p) is 0 (every sampled event on one side)
+	// the linearised variance says nothing, and Kish's n_eff = (Σw)²/Σw² of the
+	// denominator's weights is used instead (Kish 1965, §11.7). A Wald interval would
+	// collapse to a point there, claiming a certainty the sample cannot give.
+	wald := func(den []float64) func(e design.Estimate, err error) Estimate {
+		return func(e design.Estimate, err error) Estimate {
+			if err != nil {
+				return pointOnly(math.NaN())
+			}
+			var n, sw, sw2 float64
+			for i, d := range den {
+				if d == 1 {
+					n++
+					sw += s.weight[i]
+					sw2 += s.weight[i] * s.weight[i]
+				}
+			}
+			p := e.Value
+			neff := math.NaN()
+			if v := e.Var; v > 0 && p > 0 && p < 1 {
+				neff = math.Min(n, p*(1-p)/v)
+			} else if sw2 > 0 {
+				neff = sw * sw / sw2
+			}
+			if !(neff > 0) || math.IsNaN(p) {
+				return pointOnly(p)
+			}
+			lo, hi := accuracy.Wilson(p*neff, neff, level)
+			return Estimate{p, lo, hi}
 		}
-		h := z * e.SE()
-		return Estimate{e.Value, math.Max(0, e.Value-h), math.Min(1, e.Value+h)}
 	}
 	one := func(bool, bool) bool { return true }
+	pos := ind(func(_, t bool) bool { return t })
+	neg := ind(func(_, t bool) bool { return !t })
+	called := ind(func(p, _ bool) bool { return p })
+	uncalled := ind(func(p, _ bool) bool { return !p })
 	m.Design = Rates{
-		Sens:     wald(design.Sensitivity(sm, hit, s.truth)),
-		Spec:     wald(design.Specificity(sm, hit, s.truth)),
-		PPV:      wald(design.PPV(sm, hit, s.truth)),
-		NPV:      wald(design.Ratio(sm, ind(func(p, t bool) bool { return !p && !t }), ind(func(p, _ bool) bool { return !p }))),
-		Accuracy: wald(design.Ratio(sm, ind(func(p, t bool) bool { return p == t }), ind(one))),
+		Sens:     wald(pos)(design.Sensitivity(sm, hit, s.truth)),
+		Spec:     wald(neg)(design.Specificity(sm, hit, s.truth)),
+		PPV:      wald(called)(design.PPV(sm, hit, s.truth)),
+		NPV:      wald(uncalled)(design.Ratio(sm, ind(func(p, t bool) bool { return !p && !t }), uncalled)),
+		Accuracy: wald(ind(one))(design.Ratio(sm, ind(func(p, t bool) bool { return p == t }), ind(one))),
 		LRPos:    pointOnly(w.LRPos()),
 		LRNeg:    pointOnly(w.LRNeg()),
 		Youden:   pointOnly(w.Youden()),

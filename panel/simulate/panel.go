@@ -23,6 +23,7 @@ type Profile struct {
 	Name        string
 	Sens, Spec  [6]float64
 	Threshold   int     // own count of present criteria that makes "epileptiform"
+	Gestalt     float64 // probability that the verdict is the rater's overall recognition of the event
 	VerdictFlip float64 // probability of flipping the verdict
 	Lapse       float64 // probability of a random answer
 	Halo        float64 // probability that one impression drives all criteria
@@ -39,6 +40,7 @@ func Panel(n int) []Profile {
 		p := Profile{
 			Name:        fmt.Sprintf("fictional-rater-%c", 'a'+i%26),
 			Threshold:   4,
+			Gestalt:     0.7,
 			VerdictFlip: 0.03,
 			Lapse:       0.02,
 			Consistency: 0.85,
@@ -55,7 +57,7 @@ func Panel(n int) []Profile {
 			for c := range 6 {
 				p.Sens[c], p.Spec[c] = 0.75, 0.75
 			}
-			p.Halo, p.Lapse, p.Consistency, p.VerdictFlip = 0.4, 0.06, 0.7, 0.08
+			p.Halo, p.Lapse, p.Consistency, p.VerdictFlip, p.Gestalt = 0.4, 0.06, 0.7, 0.08, 0.4
 		}
 		ps[i] = p
 	}
@@ -93,6 +95,9 @@ func (p Profile) Answer(t Truth, rng *rand.Rand) Answers {
 		}
 	}
 	a.Epileptiform = n >= p.Threshold
+	if rng.Float64() < p.Gestalt {
+		a.Epileptiform = t.IED
+	}
 	if rng.Float64() < p.VerdictFlip {
 		a.Epileptiform = !a.Epileptiform
 	}

@@ -1,0 +1,222 @@
+package main
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/csv"
+	"encoding/hex"
+	"encoding/json"
+	"io"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+
+	"github.com/parquet-go/parquet-go"
+
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/export/report"
+	"github.com/quorate-eeg/quorate/panel/consensus"
+	"github.com/quorate-eeg/quorate/sampling/archive"
+	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/sampling/synth"
+)
+
+// timestamps matches the RFC 3339 times that commands stamp on logs and reports.
+var timestamps = regexp.MustCompile(`\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d+)?Z`)
+
+// stampedHashes matches the hash of a report file in the provenance log.
+var stampedHashes = regexp.MustCompile(`("path":"[^"]*\.(?:json|md|html)",)"sha256":"[0-9a-f]{64}"`)
+
+// snapshot hashes every file under dir, with timestamps blanked in text files.
+func snapshot(t *testing.T, dir string) map[string]string {
+	t.Helper()
+	out := map[string]string{}
+	filepath.WalkDir(dir, func(p string, d os.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		b, err := os.ReadFile(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		switch filepath.Ext(p) {
+		case ".json", ".jsonl", ".md", ".html":
+			b = timestamps.ReplaceAll(b, []byte("TIME"))
+		}
+		if filepath.Base(p) == "provenance.jsonl" {
+			// The log hashes reports, and reports carry their time of writing.
+			b = stampedHashes.ReplaceAll(b, []byte(`$1"sha256":"-"`))
+		}
+		rel, _ := filepath.Rel(dir, p)
+		h := sha256.Sum256(b)
+		out[rel] = hex.EncodeToString(h[:])
+		return nil
+	})
+	return out
+}
+
+func runDemoForTest(t *testing.T, out string, seed string) string {
+	t.Helper()
+	var buf bytes.Buffer
+	g := &globals{argv: []string{"quorate", "demo"}, stdout: &buf}
+	root := newRoot(g)
+	root.SetArgs([]string{"--quiet", "--workers", "2", "demo", "--out", out, "--recordings", "4", "--minutes", "4", "--n", "120", "--raters", "5", "--seed", seed})
+	if err := root.Execute(); err != nil {
+		t.Fatalf("demo: %v\n%s", err, buf.String())
+	}
+	return buf.String()
+}
+
+func TestDemoEndToEnd(t *testing.T) {
+	if testing.Short() {
+		t.Skip("end-to-end demo skipped in -short mode")
+	}
+	out := filepath.Join(t.TempDir(), "demo")
+	summary := runDemoForTest(t, out, "7")
+	for _, want := range []string{"Scanned", "Detected", "Drew", "Fleiss' kappa", "Operating", "report.html", "not a diagnostic device"} {
+		if !strings.Contains(summary, want) {
+			t.Errorf("summary lacks %q:\n%s", want, summary)
+		}
+	}
+	st := filepath.Join(out, "study")
+
+	// Every output exists and parses.
+	mustParquet := func(path string) {
+		f, err := os.Open(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer f.Close()
+		info, _ := f.Stat()
+		pf, err := parquet.OpenFile(f, info.Size())
+		if err != nil || pf.NumRows() == 0 {
+			t.Errorf("%s: %v, %d rows", path, err, pf.NumRows())
+		}
+	}
+	for _, p := range []string{"index/recordings.parquet", "draw/draw.parquet", "packets/key.parquet",
+		"consensus/ratings.parquet", "consensus/consensus.parquet", "tuning/sweep.parquet"} {
+		mustParquet(filepath.Join(st, p))
+	}
+	for _, p := range []string{"events.parquet", "ratings.parquet", "recordings.parquet"} {
+		mustParquet(filepath.Join(out, "export", p))
+	}
+	for _, p := range []string{"consensus/agreement.json", "tuning/operating-point.json", "packets/manifest.json"} {
+		var v any
+		b, err := os.ReadFile(filepath.Join(st, p))
+		if err != nil || json.Unmarshal(b, &v) != nil {
+			t.Errorf("%s does not parse: %v", p, err)
+		}
+	}
+	f, _ := os.Open(filepath.Join(st, "index", "problems.csv"))
+	if _, err := csv.NewReader(f).ReadAll(); err != nil {
+		t.Errorf("problems.csv: %v", err)
+	}
+	f.Close()
+	html, _ := os.ReadFile(filepath.Join(st, "tuning", "report.html"))
+	if !bytes.Contains(html, []byte("not a diagnostic device")) || !bytes.Contains(html, []byte("<svg")) {
+		t.Error("report.html lacks the caution or its figures")
+	}
+
+	// The chosen operating point, scored against the generator's truth on every
+	// candidate, lies within the intervals the report gives for it.
+	s, err := study.Open(st)
+	if err != nil {
+		t.Fatal(err)
+	}
+	op, err := report.ReadOperatingPoint(s.Path(study.TuningDir, report.PointFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	recs, _ := archive.ReadIndex(s.Path(study.IndexDir, archive.IndexFile))
+	cands, _ := candidate.ReadDir(s.Path(study.CandidatesDir))
+	truthByPath := map[string][]synth.Event{}
+	for _, r := range recs {
+		evs, err := readTruth(filepath.Join(out, "truth", strings.TrimSuffix(filepath.Base(r.Path), ".edf")+"_truth.csv"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		truthByPath[r.Path] = evs
+	}
+	ts := TruthCheck(op, cands, demoTruth(recs, cands, truthByPath))
+	d := op.InSample.DesignWeighted
+	if !(float64(d.Sensitivity.Lo) <= ts.Sens && ts.Sens <= float64(d.Sensitivity.Hi)) {
+		t.Errorf("sensitivity against the truth %.3f outside the reported interval %.3f–%.3f", ts.Sens, d.Sensitivity.Lo, d.Sensitivity.Hi)
+	}
+	if !(float64(d.Specificity.Lo) <= ts.Spec && ts.Spec <= float64(d.Specificity.Hi)) {
+		t.Errorf("specificity against the truth %.3f outside the reported interval %.3f–%.3f", ts.Spec, d.Specificity.Lo, d.Specificity.Hi)
+	}
+
+	// Agreement of the simulated panel (raters of accuracy 0.75–0.93) on the overall
+	// verdict lies in a plausible band: above chance, below perfect.
+	var agr consensus.Agreement
+	b, _ := os.ReadFile(s.Path(study.ConsensusDir, "agreement.json"))
+	json.Unmarshal(b, &agr)
+	for _, q := range agr.Questions {
+		if k := float64(q.Fleiss.Value); k < 0.05 || k > 0.95 {
+			t.Errorf("%s: Fleiss' kappa %.2f outside the plausible band 0.05–0.95", q.Question, k)
+		}
+	}
+
+	// The same seed gives the same outputs, apart from timestamps; another seed differs.
+	first := snapshot(t, out)
+	runDemoForTest(t, out, "7")
+	second := snapshot(t, out)
+	if len(first) != len(second) {
+		t.Errorf("%d files on the first run, %d on the second", len(first), len(second))
+	}
+	for p, h := range first {
+		if second[p] != h {
+			t.Errorf("%s differs between two runs with the same seed", p)
+		}
+	}
+	runDemoForTest(t, out, "8")
+	third := snapshot(t, out)
+	if third["study/draw/draw.parquet"] == first["study/draw/draw.parquet"] || third["archive/sub-001/sub-001_ses-01_task-rest_run-01.edf"] == first["archive/sub-001/sub-001_ses-01_task-rest_run-01.edf"] {
+		t.Error("another seed gave the same archive or draw")
+	}
+}
+
+// readTruth reads a truth table written by synth.WriteTruthCSV (the columns the check needs).
+func readTruth(path string) ([]synth.Event, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	head, err := r.Read()
+	if err != nil {
+		return nil, err
+	}
+	col := map[string]int{}
+	for i, h := range head {
+		col[h] = i
+	}
+	var out []synth.Event
+	for {
+		rec, err := r.Read()
+		if err == io.EOF {
+			return out, nil
+		}
+		if err != nil {
+			return nil, err
+		}
+		var e synth.Event
+		e.ID, e.Kind, e.IsIED = rec[col["id"]], rec[col["kind"]], rec[col["is_ied"]] == "1"
+		json.Unmarshal([]byte(rec[col["onset_s"]]), &e.Onset)
+		out = append(out, e)
+	}
+}
+
+func TestDemoRefusesForeignFolder(t *testing.T) {
+	dir := t.TempDir()
+	os.WriteFile(filepath.Join(dir, "thesis.tex"), []byte("precious"), 0o644)
+	if err := prepareDemoDir(dir); err == nil {
+		t.Fatal("demo would have replaced a folder it did not make")
+	}
+	if b, _ := os.ReadFile(filepath.Join(dir, "thesis.tex")); string(b) != "precious" {
+		t.Fatal("a foreign file was touched")
+	}
+}

@@ -1,0 +1,122 @@
+package detect
+
+import (
+	"math"
+	"slices"
+)
+
+// madToSD converts a median absolute deviation to the standard deviation of
+// a normal distribution with that MAD, 1/Φ⁻¹(3/4) (Hampel 1974, J Am Stat
+// Assoc 69:383–393).
+const madToSD = 1.482602218505602
+
+// blockStats computes, for consecutive blocks of n samples of x (the last
+// may be shorter, but at least n/2), the median med[b] and the median
+// absolute deviation mad[b]. Medians are by selection, O(n) per block, so
+// the robust scale costs a few operations per sample rather than a sort per
+// sample (Hoare 1961, "Algorithm 65: Find", Commun ACM 4(7):321–322).
+func blockStats(x []float32, n int, med, mad []float64, scratch []float32) ([]float64, []float64) {
+	med, mad = med[:0], mad[:0]
+	for s := 0; s < len(x); s += n {
+		e := min(s+n, len(x))
+		if e-s < n/2 && len(med) > 0 {
+			// a short tail block inherits the previous block's statistics
+			med = append(med, med[len(med)-1])
+			mad = append(mad, mad[len(mad)-1])
+			continue
+		}
+		b := append(scratch[:0], x[s:e]...)
+		m := median32(b)
+		for i, v := range x[s:e] {
+			b[i] = float32(math.Abs(float64(v) - m))
+		}
+		med = append(med, m)
+		mad = append(mad, median32(b))
+	}
+	return med, mad
+}
+
+// slidingScale sets scale[b] to madToSD times the median of mad over blocks
+// b−h … b+h (clipped to the ends): the robust background scale of block b.
+// Taking the median across blocks keeps an event's own block, or a short
+// burst of artefact, from raising the scale around it.
+func slidingScale(mad []float64, h int, scale []float64) []float64 {
+	scale = scale[:0]
+	var tmp []float64
+	for b := range mad {
+		lo, hi := max(b-h, 0), min(b+h+1, len(mad))
+		tmp = append(tmp[:0], mad[lo:hi]...)
+		slices.Sort(tmp)
+		var m float64
+		if k := len(tmp); k%2 == 1 {
+			m = tmp[k/2]
+		} else {
+			m = (tmp[k/2-1] + tmp[k/2]) / 2
+		}
+		scale = append(scale, madToSD*m)
+	}
+	return scale
+}
+
+// median32 returns the median of b (the mean of the two middle values for
+// even length), reordering b.
+func median32(b []float32) float64 {
+	k := len(b)
+	if k == 0 {
+		return math.NaN()
+	}
+	hi := float64(selectK(b, k/2))
+	if k%2 == 1 {
+		return hi
+	}
+	// after selection every element below k/2 is ≤ b[k/2]; the lower
+	// middle is their maximum
+	lo := b[0]
+	for _, v := range b[1 : k/2] {
+		lo = max(lo, v)
+	}
+	return (float64(lo) + hi) / 2
+}
+
+// selectK reorders b so that b[k] is the k-th smallest, smaller-or-equal
+// elements before it, and returns it (Hoare's selection with a
+// median-of-three pivot).
+func selectK(b []float32, k int) float32 {
+	lo, hi := 0, len(b)-1
+	for lo < hi {
+		mid := lo + (hi-lo)/2
+		if b[mid] < b[lo] {
+			b[mid], b[lo] = b[lo], b[mid]
+		}
+		if b[hi] < b[lo] {
+			b[hi], b[lo] = b[lo], b[hi]
+		}
+		if b[hi] < b[mid] {
+			b[hi], b[mid] = b[mid], b[hi]
+		}
+		p := b[mid]
+		i, j := lo, hi
+		for i <= j {
+			for b[i] < p {
+				i++
+			}
+			for b[j] > p {
+				j--
+			}
+			if i <= j {
+				b[i], b[j] = b[j], b[i]
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return b[k]
+		}
+	}
+	return b[k]
+}

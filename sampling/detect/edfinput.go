@@ -1,0 +1,94 @@
+package detect
+
+import (
+	"fmt"
+	"io"
+	"math"
+
+	"github.com/quorate-eeg/quorate/sampling/edf"
+	"github.com/quorate-eeg/quorate/sampling/montage"
+)
+
+// edfSource serves the chosen signals of an EDF reader, offset to one
+// segment's first sample. Samples past the end of the file read as zero,
+// which the caller never asks for within a segment.
+type edfSource struct {
+	r     *edf.Reader
+	sigs  []int
+	first int64
+}
+
+func (s *edfSource) ReadAt(ch int, start int64, dst []float32) error {
+	n, err := s.r.ReadSignal(s.sigs[ch], s.first+start, dst)
+	if err == io.EOF && n == len(dst) {
+		err = nil
+	}
+	return err
+}
+
+// edfInputs splits an EDF-family recording into Inputs: one per contiguous
+// segment (EDF+D is processed segment by segment, never across a gap), over
+// the scalp EEG signals at the most common EEG sampling rate. Signals at
+// other rates, and non-EEG signals, are left out with a warning.
+func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) {
+	h := r.Header()
+	var warns []string
+	count := map[float64]int{}
+	for _, s := range h.Signals {
+		if s.Kind == edf.EEG && montage.IsElectrode(s.Name) {
+			count[s.SampleRate(h.RecordDuration)]++
+		}
+	}
+	if len(count) == 0 {
+		return nil, []string{"no scalp EEG channels; recording skipped"}, nil
+	}
+	var rate float64
+	for f, c := range count {
+		if c > count[rate] || (c == count[rate] && f > rate) {
+			rate = f
+		}
+	}
+	var labels []string
+	var sigs []int
+	var ranges [][2]float64
+	for i, s := range h.Signals {
+		if s.Kind != edf.EEG || !montage.IsElectrode(s.Name) {
+			continue
+		}
+		if f := s.SampleRate(h.RecordDuration); f != rate {
+			warns = append(warns, fmt.Sprintf("channel %s at %g Hz, not %g Hz: left out", s.Name, f, rate))
+			continue
+		}
+		if g := s.Gain(); math.IsNaN(g) || math.IsInf(g, 0) || g == 0 {
+			warns = append(warns, fmt.Sprintf("channel %s: unusable scaling (physical %g…%g, digital %d…%d): left out", s.Name, s.PhysMin, s.PhysMax, s.DigMin, s.DigMax))
+			continue
+		}
+		labels = append(labels, s.Name)
+		sigs = append(sigs, i)
+		ranges = append(ranges, [2]float64{s.PhysMin, s.PhysMax})
+	}
+	if len(labels) == 0 {
+		return nil, append(warns, "no usable scalp EEG channels; recording skipped"), nil
+	}
+	segs, err := r.Segments()
+	if err != nil {
+		return nil, warns, err
+	}
+	var spr int64
+	for _, i := range sigs[:1] {
+		spr = int64(h.Signals[i].SamplesPerRecord)
+	}
+	var ins []Input
+	for _, sg := range segs {
+		first := sg.FirstRecord * spr
+		ins = append(ins, Input{
+			RecordingID: recID, SubjectKey: subject,
+			Labels: labels, PhysRange: ranges, Rate: rate,
+			Len: sg.Records * spr, StartS: sg.Start, FirstSample: first,
+			Src: &edfSource{r: r, sigs: sigs, first: first},
+		})
+	}
+	return ins, warns, nil
+}
+
+func formatS(t float64) string { return fmt.Sprintf("%.3f s", t) }

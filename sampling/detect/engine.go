@@ -1,0 +1,404 @@
+package detect
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"slices"
+	"sort"
+	"strings"
+
+	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/sampling/headmodel"
+	"github.com/quorate-eeg/quorate/sampling/montage"
+	"github.com/quorate-eeg/quorate/sampling/signal"
+)
+
+// filterTol is the start-up transient tolerance used to size window margins
+// (signal.Margin): 1e-3 of the filter's gain, well below the amplitude
+// resolution that matters for detection.
+const filterTol = 1e-3
+
+// montages are the derivations for one set of good channels: det for
+// finding and measuring, car (the same when det is common average) for
+// polarity and the voltage map of c6.
+type montages struct {
+	det, car *montage.Montage
+	detPlus  []int // recording channel of each det derivation's Plus
+	carPlus  []int
+	fitIdx   []int // car derivations with a 10-10 position, in fit order
+	fitter   *headmodel.Fitter
+	ok       bool
+}
+
+// engine detects and measures in one recording. It is not safe for
+// concurrent use.
+type engine struct {
+	s               *settings
+	in              *Input
+	zp              *signal.ZeroPhase
+	margin          int
+	rate            float64
+	source          string // Row.Source of the rows made
+	mons            map[string]*montages
+	warnings        []string
+	warned          map[string]int
+	sc              scratch
+	raw, det, car   [][]float32
+	med, mad, scale [][]float64
+	blk             []float32
+	dets            []detection
+	vmap            []float64
+}
+
+// warn records a warning once per distinct text, counting repeats.
+func (e *engine) warn(format string, args ...any) {
+	w := fmt.Sprintf(format, args...)
+	if e.warned == nil {
+		e.warned = map[string]int{}
+	}
+	if e.warned[w] == 0 {
+		e.warnings = append(e.warnings, w)
+	}
+	e.warned[w]++
+}
+
+// setRate designs the conditioning filter for a sampling rate: Butterworth
+// band-pass of order 2 per edge, the upper edge capped at 0.45 of the rate,
+// followed by the mains notch (q = 30) when it lies below Nyquist.
+func (e *engine) setRate(fs float64) error {
+	if e.zp != nil && e.rate == fs {
+		return nil
+	}
+	hiHz := min(e.s.band[1], 0.45*fs)
+	if hiHz <= e.s.band[0] {
+		return &OptionError{"Bandpass", e.s.band, fmt.Sprintf("no pass band below 0.45 × %g Hz", fs)}
+	}
+	bp, err := signal.Butterworth(signal.BandPass, 2, fs, e.s.band[0], hiHz)
+	if err != nil {
+		return err
+	}
+	sos := bp
+	if e.s.notch > 0 && e.s.notch < 0.5*fs {
+		n, err := signal.Notch(e.s.notch, 30, fs)
+		if err != nil {
+			return err
+		}
+		sos = signal.Cascade(bp, n)
+	}
+	e.zp = signal.NewZeroPhase(sos)
+	e.margin = signal.Margin(sos, filterTol)
+	e.rate = fs
+	return nil
+}
+
+// montagesFor returns the montages for a bad-channel mask, building and
+// caching them on first use.
+func (e *engine) montagesFor(bad []bool) *montages {
+	key := fmt.Sprint(bad)
+	if m, ok := e.mons[key]; ok {
+		return m
+	}
+	m := &montages{}
+	e.mons[key] = m
+	det, ws, err := montage.Build(e.s.kind, e.in.Labels, bad)
+	for _, w := range ws {
+		e.warn("montage %s: %s", e.s.kind, w)
+	}
+	if err != nil {
+		e.warn("montage %s: %v; windows with these channels skipped", e.s.kind, err)
+		return m
+	}
+	m.det = det
+	m.car = det
+	if e.s.kind != montage.CommonAverage {
+		car, _, err := montage.Build(montage.CommonAverage, e.in.Labels, bad)
+		if err != nil {
+			e.warn("common average: %v; windows with these channels skipped", err)
+			return m
+		}
+		m.car = car
+	}
+	for _, d := range m.det.Derivations() {
+		m.detPlus = append(m.detPlus, d.Plus)
+	}
+	var pos []headmodel.Vec3
+	for i, d := range m.car.Derivations() {
+		m.carPlus = append(m.carPlus, d.Plus)
+		if p, ok := headmodel.Position(e.in.Labels[d.Plus]); ok {
+			m.fitIdx = append(m.fitIdx, i)
+			pos = append(pos, p)
+		}
+	}
+	if f, err := headmodel.NewFitter(pos, headmodel.DefaultHead(), headmodel.FitOptions{}); err == nil {
+		m.fitter = f
+	} else {
+		e.warn("dipole fit unavailable (c6 not measured): %v", err)
+	}
+	m.ok = true
+	return m
+}
+
+func grow32(b [][]float32, n, l int) [][]float32 {
+	for len(b) < n {
+		b = append(b, nil)
+	}
+	for i := range b[:n] {
+		if cap(b[i]) < l {
+			b[i] = make([]float32, l)
+		}
+		b[i] = b[i][:l]
+	}
+	return b[:n]
+}
+
+// window is one conditioned stretch: buffer index i is input sample base+i;
+// [lo, hi) is conditioned with full filter margins or the true ends.
+type window struct {
+	base   int64
+	lo, hi int
+	m      *montages
+}
+
+// condition reads input samples [cs−M, ce+M) (clipped), flags bad channels
+// on [qs, qe), applies the montages and filters. It returns ok = false, with
+// a warning, when the window cannot be used.
+func (e *engine) condition(cs, ce, qs, qe int64) (window, bool, error) {
+	in := e.in
+	rs, re := max(cs-int64(e.margin), 0), min(ce+int64(e.margin), in.Len)
+	L := int(re - rs)
+	w := window{base: rs, lo: int(cs - rs), hi: int(ce - rs)}
+	if L <= e.zp.Pad() {
+		e.warn("stretch of %.1f s at %.1f s too short to filter; skipped", float64(in.Len)/in.Rate, in.StartS)
+		return w, false, nil
+	}
+	nc := len(in.Labels)
+	e.raw = grow32(e.raw, nc, L)
+	bad := make([]bool, nc)
+	for c := range nc {
+		if !montage.IsElectrode(in.Labels[c]) {
+			bad[c] = true
+			continue
+		}
+		if err := in.Src.ReadAt(c, rs, e.raw[c]); err != nil {
+			return w, false, err
+		}
+		x := e.raw[c]
+		nonFinite := 0
+		for i, v := range x {
+			if math.IsNaN(float64(v)) || math.IsInf(float64(v), 0) {
+				x[i] = 0
+				nonFinite++
+			}
+		}
+		// quality on every 16th sample of the stretch to be detected in
+		// (16 per second at 256 Hz, about 1900 in a 120 s window): the 1st
+		// and 99th percentiles of a decimated sample are as good a
+		// flatness test and cost a fraction of the sort
+		a, b := int(qs-rs), int(qe-rs)
+		e.blk = e.blk[:0]
+		for i := a; i < b; i += 16 {
+			e.blk = append(e.blk, x[i])
+		}
+		var pr [2]float64
+		if in.PhysRange != nil {
+			pr = in.PhysRange[c]
+		}
+		q := montage.ChannelQuality(e.blk, pr)
+		switch {
+		case nonFinite > 0:
+			bad[c] = true
+			e.warn("channel %s: non-finite samples (bad scaling?); excluded where present", in.Labels[c])
+		case q.Saturated:
+			bad[c] = true
+			e.warn("channel %s: saturated; excluded where saturated", in.Labels[c])
+		case q.Flat:
+			bad[c] = true
+			e.warn("channel %s: flat; excluded where flat", in.Labels[c])
+		}
+	}
+	m := e.montagesFor(bad)
+	if !m.ok {
+		return w, false, nil
+	}
+	w.m = m
+	e.det = grow32(e.det, m.det.Len(), L)
+	m.det.Apply(e.raw, e.det)
+	for _, x := range e.det {
+		if err := e.zp.Apply32(x); err != nil {
+			return w, false, err
+		}
+	}
+	if m.car != m.det {
+		e.car = grow32(e.car, m.car.Len(), L)
+		m.car.Apply(e.raw, e.car)
+		for _, x := range e.car {
+			if err := e.zp.Apply32(x); err != nil {
+				return w, false, err
+			}
+		}
+	}
+	return w, true, nil
+}
+
+// carTraces returns the common-average traces of the current window.
+func (e *engine) carTraces(w window) [][]float32 {
+	if w.m.car == w.m.det {
+		return e.det
+	}
+	return e.car
+}
+
+// scales computes the robust background scale per 1 s block of every
+// derivation over [w.lo, w.hi).
+func (e *engine) scales(w window) (block int) {
+	block = max(1, int(math.Round(e.rate)))
+	h := max(0, int(math.Round(e.s.backS/2)))
+	n := len(e.det)
+	for len(e.med) < n {
+		e.med, e.mad, e.scale = append(e.med, nil), append(e.mad, nil), append(e.scale, nil)
+	}
+	for d := range n {
+		e.med[d], e.mad[d] = blockStats(e.det[d][w.lo:w.hi], block, e.med[d], e.mad[d], e.blk)
+		e.scale[d] = slidingScale(e.mad[d], h, e.scale[d])
+	}
+	return block
+}
+
+// run detects in input samples [0, Len) window by window.
+func (e *engine) run(ctx context.Context) ([]candidate.Row, error) {
+	in := e.in
+	fs := in.Rate
+	if err := e.setRate(fs); err != nil {
+		return nil, err
+	}
+	W := int64(math.Round(e.s.windowS * fs))
+	C := int64(math.Ceil(max(contextNeed, e.s.backS/2+0.5) * fs))
+	tol := int(math.Round(e.s.mergeS * fs))
+	var rows []candidate.Row
+	for ws := int64(0); ws < in.Len; ws += W {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		we := min(ws+W, in.Len)
+		w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
+		if err != nil {
+			return nil, err
+		}
+		if !ok {
+			continue
+		}
+		block := e.scales(w)
+		// detections slightly beyond the window join events inside it
+		from := max(int(ws-w.base)-tol, w.lo)
+		to := min(int(we-w.base)+tol, w.hi)
+		e.dets = e.dets[:0]
+		for d, x := range e.det {
+			sc := e.scale[d]
+			at := func(i int) float64 { return sc[min((i-w.lo)/block, len(sc)-1)] }
+			e.dets = findChannel(e.dets, d, x, from, to, fs, e.s.thr, at)
+		}
+		for _, c := range merge(e.dets, tol) {
+			p := int64(c.best.ph.peak) + w.base
+			if p < ws || p >= we {
+				continue
+			}
+			rows = append(rows, e.row(w, c))
+		}
+	}
+	return rows, nil
+}
+
+// row measures one event and fills its candidate row.
+func (e *engine) row(w window, c cluster) candidate.Row {
+	in := e.in
+	ph := c.best.ph
+	t := &trace{x: e.det[c.best.deriv], lo: w.lo, hi: w.hi, fs: e.rate}
+	ms := measure(t, ph, &e.sc)
+	labels := in.Labels
+	elec := labels[w.m.detPlus[c.best.deriv]]
+	car := e.carTraces(w)
+	// polarity in the common average, at the peak electrode
+	pol := ph.sign
+	if w.m.car != w.m.det {
+		for i, p := range w.m.carPlus {
+			if labels[p] == elec {
+				pol = math.Copysign(1, float64(car[i][ph.peak]))
+			}
+		}
+	}
+	e.vmap = e.vmap[:0]
+	for _, i := range w.m.fitIdx {
+		e.vmap = append(e.vmap, float64(car[i][ph.peak]))
+	}
+	f := cerebralField(w.m.fitter, e.vmap)
+	var chans []string
+	for _, d := range c.members {
+		chans = append(chans, labels[w.m.detPlus[d]])
+	}
+	slices.Sort(chans)
+	chans = slices.Compact(chans)
+	sample := in.FirstSample + w.base + int64(ph.peak)
+	lobe, side := montage.Region(elec)
+	row := candidate.Row{
+		EventID:            candidate.EventID(in.RecordingID, e.source, sample),
+		RecordingID:        in.RecordingID,
+		SubjectKey:         in.SubjectKey,
+		Source:             e.source,
+		OnsetS:             in.StartS + float64(w.base+int64(ph.peak))/e.rate,
+		PeakChannel:        elec,
+		Polarity:           map[bool]string{true: "negative", false: "positive"}[pol < 0],
+		Lobe:               lobe,
+		Side:               side,
+		Region:             strings.Trim(lobe+"-"+side, "-"),
+		Channels:           chans,
+		AmplitudeUV:        ph.amp,
+		State:              "unknown",
+		C1DurationMS:       ms.durMS,
+		C1Sharpness:        ms.sharp,
+		C1Phases:           int32(ms.phases),
+		C2DurationLogRatio: ms.logRatio,
+		C2BackgroundMS:     ms.bgMS,
+		C3Asymmetry:        ms.asym,
+		C3RiseMS:           ms.riseMS,
+		C3FallMS:           ms.fMS,
+		C4SlowWaveRatio:    ms.slow,
+		C5Disruption:       ms.disrupt,
+		C6DipoleGOF:        f.gof,
+		C6DipoleX:          f.pos[0],
+		C6DipoleY:          f.pos[1],
+		C6DipoleZ:          f.pos[2],
+		C6Orientation:      f.orient,
+		C6FieldExtent:      int32(f.extent),
+		Imported:           math.NaN(),
+	}
+	decide(&row, c.best.z, e.s.thr, e.s.cut)
+	return row
+}
+
+// Detect finds and measures candidate events in one input stretch. Warnings
+// describe what was degraded or skipped; an error means the stretch could
+// not be read at all.
+func Detect(ctx context.Context, in Input, o Options) ([]candidate.Row, []string, error) {
+	s, err := o.settings()
+	if err != nil {
+		return nil, nil, err
+	}
+	e := newEngine(s, &in)
+	rows, err := e.run(ctx)
+	return rows, e.warnings, err
+}
+
+func newEngine(s *settings, in *Input) *engine {
+	return &engine{s: s, in: in, source: "builtin", mons: map[string]*montages{}}
+}
+
+// sortRows orders rows by onset, then peak channel, for stable output.
+func sortRows(rows []candidate.Row) {
+	sort.SliceStable(rows, func(a, b int) bool {
+		if rows[a].OnsetS != rows[b].OnsetS {
+			return rows[a].OnsetS < rows[b].OnsetS
+		}
+		return rows[a].PeakChannel < rows[b].PeakChannel
+	})
+}

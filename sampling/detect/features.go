@@ -1,0 +1,74 @@
+package detect
+
+import (
+	"math"
+
+	"gonum.org/v1/gonum/dsp/fourier"
+)
+
+// trace is the conditioned peak-channel trace an event is measured on.
+type trace struct {
+	x      []float32
+	lo, hi int // the conditioned, usable part of x
+	fs     float64
+}
+
+// Background reference around a peak at p, in seconds: [p−5, p−0.5] before
+// it and [p+2, p+5] after it. The gap after the peak leaves out the
+// after-going slow wave and any post-event attenuation, which may last more
+// than a second, so that c2, c4 and c5 compare the event with the activity
+// it interrupts and not with itself.
+const (
+	bgSpanS     = 5.0
+	bgPreGapS   = 0.5
+	bgPostGapS  = 2.0
+	contextNeed = bgSpanS + 0.5 // seconds of conditioned context each side
+)
+
+// background returns the background ranges around p as half-open sample
+// intervals inside the usable part of t.
+func (t *trace) background(p int) [][2]int {
+	s := func(sec float64) int { return int(math.Round(sec * t.fs)) }
+	r := [][2]int{
+		{max(p-s(bgSpanS), t.lo), min(p-s(bgPreGapS), t.hi)},
+		{max(p+s(bgPostGapS), t.lo), min(p+s(bgSpanS), t.hi)},
+	}
+	out := r[:0]
+	for _, v := range r {
+		if v[1] > v[0] {
+			out = append(out, v)
+		}
+	}
+	return out
+}
+
+// scratch is per-worker space for feature computation.
+type scratch struct {
+	fftN int
+	fft  *fourier.FFT
+	seg  []float64
+	win  []float64
+	psd  []float64
+	co   []complex128
+	cum  []float64
+}
+
+// measures are the feature values of one event before they go into a Row.
+type measures struct {
+	durMS, sharp      float64
+	phases            int
+	logRatio, bgMS    float64
+	asym, riseMS, fMS float64
+	slow              float64
+	disrupt           float64
+}
+
+func measure(t *trace, ph phase, sc *scratch) measures {
+	var m measures
+	m.durMS, m.sharp, m.phases = spiky(t, ph)
+	m.logRatio, m.bgMS = durationRatio(t, ph, sc)
+	m.asym, m.riseMS, m.fMS = asymmetry(t, ph)
+	m.slow = slowWave(t, ph, sc)
+	m.disrupt = disruption(t, ph)
+	return m
+}

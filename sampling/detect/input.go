@@ -1,0 +1,21 @@
+package detect
+
+import (
+	"github.com/quorate-eeg/quorate/sampling/signal"
+)
+
+// Input is one contiguous stretch of a multichannel recording at one sampling
+// rate: a whole EDF/EDF+C recording, one EDF+D segment, or any streaming source
+// (a generator, a test fixture). Detect reads it window by window through Src,
+// never all at once.
+type Input struct {
+	RecordingID string
+	SubjectKey  string
+	Labels      []string     // normalised 10-10 names, one per channel of Src
+	PhysRange   [][2]float64 // physical [min, max] per channel; nil skips the saturation check
+	Rate        float64      // samples per second
+	Len         int64        // samples per channel
+	Src         signal.Source
+	StartS      float64 // time of sample 0, seconds from the recording start
+	FirstSample int64   // index of sample 0 in the recording, for event ids
+}
