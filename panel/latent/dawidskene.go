@@ -247,18 +247,33 @@ func normalise(p []float64) {
 // at the current parameters.
 func eStep(ratings [][]int, res *Result) float64 {
 	k := res.K
+	// The logarithms depend on the rater, class and answer only, not on the item:
+	// take them once per iteration instead of once per answer.
+	logPrev := make([]float64, k)
+	for j := range k {
+		logPrev[j] = math.Log(res.Prevalence[j])
+	}
+	logConf := make([][][]float64, len(res.Confusion))
+	for r, cr := range res.Confusion {
+		logConf[r] = make([][]float64, k)
+		for j := range k {
+			logConf[r][j] = make([]float64, len(cr[j]))
+			for v, x := range cr[j] {
+				logConf[r][j][v] = math.Log(x)
+			}
+		}
+	}
 	logp := make([]float64, k)
 	var ll float64
 	for i, row := range ratings {
-		for j := range k {
-			logp[j] = math.Log(res.Prevalence[j])
-		}
+		copy(logp, logPrev)
 		for r, v := range row {
 			if v == Missing {
 				continue
 			}
+			lc := logConf[r]
 			for j := range k {
-				logp[j] += math.Log(res.Confusion[r][j][v])
+				logp[j] += lc[j][v]
 			}
 		}
 		m := math.Inf(-1)
