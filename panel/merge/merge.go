@@ -6,17 +6,14 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
-	"io"
 	"os"
 	"path/filepath"
 	"sort"
 	"strings"
 	"time"
 
-	"github.com/parquet-go/parquet-go"
-	"github.com/parquet-go/parquet-go/compress/zstd"
-
 	"github.com/quorate-eeg/quorate/internal/atomicfile"
+	"github.com/quorate-eeg/quorate/internal/parquetfile"
 	"github.com/quorate-eeg/quorate/panel/consensus"
 	"github.com/quorate-eeg/quorate/panel/packet"
 	"github.com/quorate-eeg/quorate/panel/returns"
@@ -239,22 +236,14 @@ func ratingOf(ret *returns.Return, a returns.Answer, k packet.KeyRow, hash strin
 
 func ptr[T any](v T) *T { return &v }
 
-func writeParquet[T any](path string, rows []T) error {
-	return atomicfile.Write(path, 0o644, func(w io.Writer) error {
-		pw := parquet.NewGenericWriter[T](w, parquet.Compression(&zstd.Codec{}))
-		if _, err := pw.Write(rows); err != nil {
-			return err
-		}
-		return pw.Close()
-	})
-}
+func writeParquet[T any](path string, rows []T) error { return parquetfile.Write(path, rows, 0o644) }
 
-// ReadRatings and ReadConsensus read the tables back.
+// ReadRatings reads ratings.parquet.
 func ReadRatings(path string) ([]consensus.Rating, error) {
-	return parquet.ReadFile[consensus.Rating](path)
+	return parquetfile.Read[consensus.Rating](path)
 }
 
 // ReadConsensus reads consensus.parquet.
 func ReadConsensus(path string) ([]consensus.Event, error) {
-	return parquet.ReadFile[consensus.Event](path)
+	return parquetfile.Read[consensus.Event](path)
 }

@@ -4,13 +4,14 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
-	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"io/fs"
 	"math"
 	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"strings"
+
+	"github.com/quorate-eeg/quorate/internal/atomicfile"
 )
 
 // Result describes what Build wrote.

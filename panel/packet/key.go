@@ -1,14 +1,11 @@
 package packet
 
 import (
-	"io"
-
 	"encoding/json"
-	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"maps"
 	"slices"
 
-	"github.com/parquet-go/parquet-go"
+	"github.com/quorate-eeg/quorate/internal/parquetfile"
 )
 
 // KeyRow is one row of key.parquet: which event hides behind an item code.
@@ -24,17 +21,11 @@ type KeyRow struct {
 
 // ReadKey reads a key written by Build.
 func ReadKey(path string) ([]KeyRow, error) {
-	return parquet.ReadFile[KeyRow](path)
+	return parquetfile.Read[KeyRow](path)
 }
 
 func writeKey(path string, rows []KeyRow) error {
-	return atomicfile.Write(path, 0o600, func(w io.Writer) error {
-		pw := parquet.NewGenericWriter[KeyRow](w)
-		if _, err := pw.Write(rows); err != nil {
-			return err
-		}
-		return pw.Close()
-	})
+	return parquetfile.Write(path, rows, 0o600) // the coordinator's eyes only
 }
 
 // sourceJSON encodes provenance with sorted keys so the key is reproducible.

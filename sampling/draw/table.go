@@ -1,15 +1,6 @@
 package draw
 
-import (
-	"fmt"
-	"io"
-	"os"
-
-	"github.com/parquet-go/parquet-go"
-	"github.com/parquet-go/parquet-go/compress/zstd"
-
-	"github.com/quorate-eeg/quorate/internal/atomicfile"
-)
+import "github.com/quorate-eeg/quorate/internal/parquetfile"
 
 // Row is one row of draw/draw.parquet: a drawn candidate or background control.
 type Row struct {
@@ -26,29 +17,7 @@ type Row struct {
 }
 
 // WriteRows writes draw.parquet atomically.
-func WriteRows(path string, rows []Row) error {
-	return atomicfile.Write(path, 0o644, func(w io.Writer) error {
-		pw := parquet.NewGenericWriter[Row](w, parquet.Compression(&zstd.Codec{}))
-		if _, err := pw.Write(rows); err != nil {
-			return err
-		}
-		return pw.Close()
-	})
-}
+func WriteRows(path string, rows []Row) error { return parquetfile.Write(path, rows, 0o644) }
 
 // ReadRows reads draw.parquet.
-func ReadRows(path string) ([]Row, error) {
-	f, err := os.Open(path)
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	r := parquet.NewGenericReader[Row](f)
-	defer r.Close()
-	out := make([]Row, r.NumRows())
-	n, err := r.Read(out)
-	if err != nil && err != io.EOF {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	return out[:n], nil
-}
+func ReadRows(path string) ([]Row, error) { return parquetfile.Read[Row](path) }
