@@ -1,0 +1,84 @@
+package excerpt
+
+import (
+	"context"
+	"errors"
+	"math"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"github.com/quorate-eeg/quorate/sampling/archive"
+	"github.com/quorate-eeg/quorate/sampling/draw"
+	"github.com/quorate-eeg/quorate/sampling/headmodel"
+	"github.com/quorate-eeg/quorate/sampling/headmodel/spline"
+	"github.com/quorate-eeg/quorate/sampling/synth"
+)
+
+func fixture(t *testing.T) (string, []archive.Recording, []synth.Written) {
+	arch := t.TempDir()
+	subs := synth.Archive(synth.ArchiveConfig{Seed: 3, Subjects: 2, Recordings: 1, Duration: 30, Forward: synth.HeadForward()})
+	ws, err := synth.WriteArchive(arch, t.TempDir(), subs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := archive.Run(context.Background(), archive.Options{Roots: []string{arch}, Secret: make([]byte, 32), IndexDir: t.TempDir(), Workers: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return arch, res.Recordings, ws
+}
+
+func TestCutWindowsAndMaps(t *testing.T) {
+	arch, recs, _ := fixture(t)
+	rows := []draw.Row{
+		{EventID: "ev-a", RecordingID: recs[0].RecordingID, SubjectKey: recs[0].SubjectKey, OnsetS: 12.5, Kind: "candidate"},
+		{EventID: "ev-b", RecordingID: recs[1].RecordingID, SubjectKey: recs[1].SubjectKey, OnsetS: 2, Kind: "control"}, // near the start: padded
+	}
+	items, warns, err := Cut(Options{Rows: rows, Recordings: recs, Roots: []string{arch}, Bandpass: [2]float64{0.5, 70}, NotchHz: 50})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(warns) != 0 || len(items) != 2 {
+		t.Fatalf("%d items, warnings %v", len(items), warns)
+	}
+	it := items[0]
+	// 256 Hz decimated by 2 to 128 Hz; 10 s shown, the event in the middle.
+	if it.Rate != 128 || len(it.Samples) != 19 || len(it.Samples[0]) != 1280 || it.EventAt != 5 || len(it.Electrodes) != 19 {
+		t.Fatalf("item: rate %v, %d traces of %d samples, event at %v", it.Rate, len(it.Samples), len(it.Samples[0]), it.EventAt)
+	}
+	if it.EventID != "ev-a" || it.Source["recording"] != recs[0].RecordingID {
+		t.Errorf("key fields: %q %v", it.EventID, it.Source)
+	}
+	// Before the recording's start the window is padded with a flat line (zeros, up to
+	// the filter's faint ringing), not shifted.
+	if v := items[1].Samples[0][0]; math.Abs(float64(v)) > 0.5 {
+		t.Errorf("padding before the start: %v", v)
+	}
+	m := it.Map
+	if m.Size != 40 || len(m.Values) != 1600 || !math.IsNaN(float64(m.Values[0])) {
+		t.Fatalf("map size %d, %d values, corner %v (want NaN outside the head)", m.Size, len(m.Values), m.Values[0])
+	}
+	// Each electrode marker sits where the spline grid draws that electrode's direction
+	// (azimuthal equidistant projection; Perrin et al. 1989 maps are drawn this way).
+	for _, e := range m.Electrodes {
+		p, _ := headmodel.Position(e.Name)
+		col := int(math.Floor((e.X + 1) / 2 * float64(m.Size)))
+		row := int(math.Floor((1 - e.Y) / 2 * float64(m.Size)))
+		d, ok := spline.PixelDirection(row, col, m.Size, spline.DefaultEdge)
+		if !ok || d.Angle(p) > 5*math.Pi/180 {
+			t.Errorf("%s drawn at pixel (%d,%d), %.1f° from its position", e.Name, row, col, d.Angle(p)*180/math.Pi)
+		}
+	}
+}
+
+func TestCutNamesMissingRecordings(t *testing.T) {
+	arch, recs, ws := fixture(t)
+	os.Remove(ws[0].Path)
+	rows := []draw.Row{{EventID: "ev-a", RecordingID: recs[0].RecordingID, OnsetS: 5}, {EventID: "ev-b", RecordingID: recs[1].RecordingID, OnsetS: 5}}
+	_, _, err := Cut(Options{Rows: rows, Recordings: recs, Roots: []string{arch}})
+	var me *MissingError
+	if !errors.As(err, &me) || len(me.Paths) != 1 || filepath.Base(me.Paths[0]) != filepath.Base(ws[0].Path) {
+		t.Fatalf("err = %v, want a MissingError naming %s", err, ws[0].Path)
+	}
+}
