@@ -75,9 +75,8 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 		return err
 	}
 	out := g.stdout
-	steps := &strings.Builder{}
 	step := func(name string) { fmt.Fprintf(out, "» %s\n", name) }
-	g.stdout = steps
+	g.stdout = &indent{w: out, at: true}
 	defer func() { g.stdout = out }()
 
 	step("writing a fictional archive")
@@ -302,4 +301,26 @@ func TruthCheck(op *report.OperatingPoint, cands []candidate.Row, truth map[stri
 	ts.SensLo, ts.SensHi = accuracy.Wilson(cf.TP, cf.TP+cf.FN, 0.95)
 	ts.SpecLo, ts.SpecHi = accuracy.Wilson(cf.TN, cf.TN+cf.FP, 0.95)
 	return ts
+}
+
+// indent writes each line it is given with two spaces in front, so the output of each
+// step sits under the step's name.
+type indent struct {
+	w  io.Writer
+	at bool // at the start of a line
+}
+
+func (p *indent) Write(b []byte) (int, error) {
+	for _, c := range b {
+		if p.at {
+			if _, err := io.WriteString(p.w, "    "); err != nil {
+				return 0, err
+			}
+		}
+		if _, err := p.w.Write([]byte{c}); err != nil {
+			return 0, err
+		}
+		p.at = c == '\n'
+	}
+	return len(b), nil
 }

@@ -98,8 +98,9 @@ panel, merge the ratings into a gold standard, tune, and export.
 	pf.StringVar(&g.logFormat, "log-format", "text", "log format: text or json")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 
+	// Commands are listed in the order a study runs them, not alphabetically.
+	cobra.EnableCommandSorting = false
 	root.AddCommand(
-		newVersionCmd(g),
 		newInitCmd(g),
 		newScanCmd(g),
 		newDetectCmd(g),
@@ -111,6 +112,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newTuneCmd(g),
 		newExportCmd(g),
 		newDemoCmd(g),
+		newVersionCmd(g),
 	)
 	return root
 }

@@ -124,7 +124,15 @@ func Run(o RunOptions) (*RunResult, error) {
 			rows = append(rows, rowOf(x, onset[x.EventID]))
 		}
 		if o.Controls > 0 {
-			ctl, m, err := drawControls(o, f)
+			ctl, m, err := drawControls(o, o.Controls)
+			var ce *ControlError
+			if errors.As(err, &ce) && m < o.Controls {
+				// Fewer eligible epochs than asked for: take them all, as a stratum smaller
+				// than its allocation is taken whole, and say so.
+				res.Warnings = append(res.Warnings, Warning{Stratum: "control",
+					Msg: fmt.Sprintf("only %d background epochs lie %.3g s or more from every candidate; all of them are drawn instead of %d", m, o.ControlDistS, o.Controls)})
+				ctl, m, err = drawControls(o, m)
+			}
 			if err != nil {
 				return nil, err
 			}
@@ -162,7 +170,7 @@ func rowOf(d Drawn, onset float64) Row {
 		OnsetS: onset, Pi: d.Pi, Weight: d.Weight, Phase: int32(d.Phase), Order: int32(d.Order)}
 }
 
-func drawControls(o RunOptions, f *Frame) ([]Control, int, error) {
+func drawControls(o RunOptions, m int) ([]Control, int, error) {
 	spans := make([]RecordingSpan, 0, len(o.Recordings))
 	for _, r := range o.Recordings {
 		spans = append(spans, RecordingSpan{ID: r.RecordingID, Subject: r.SubjectKey, Duration: r.DurationS})
@@ -171,7 +179,7 @@ func drawControls(o RunOptions, f *Frame) ([]Control, int, error) {
 	for _, c := range o.Candidates {
 		onsets[c.RecordingID] = append(onsets[c.RecordingID], c.OnsetS)
 	}
-	return DrawControls(spans, onsets, o.ControlEpochS, o.ControlDistS, o.Controls, o.Design.Seed)
+	return DrawControls(spans, onsets, o.ControlEpochS, o.ControlDistS, m, o.Design.Seed)
 }
 
 // keepAside renames the current draw files to draw.replaced-N.* so that nothing is lost.

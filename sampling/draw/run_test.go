@@ -120,3 +120,28 @@ func TestRunRefusesUnknownColumn(t *testing.T) {
 		t.Fatalf("err = %v, want a ColumnError listing the columns", err)
 	}
 }
+
+// Too few eligible background epochs: all are taken, with a warning, as a small
+// stratum is taken whole.
+func TestRunTakesAllControlsWhenFew(t *testing.T) {
+	cands, recs := runFixture()
+	specs, _ := ParseStrata("region")
+	res, err := Run(RunOptions{Candidates: cands, Recordings: recs, OutDir: t.TempDir(),
+		Design:   Design{Strata: specs, Alloc: Allocation{Method: Equal, N: 30}, Seed: 2},
+		Controls: 100000, ControlEpochS: 2, ControlDistS: 5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, r := range res.Rows {
+		if r.Kind == KindControl {
+			n++
+			if r.Pi != 1 {
+				t.Errorf("control %s has π %v, want 1 (every eligible epoch drawn)", r.EventID, r.Pi)
+			}
+		}
+	}
+	if n != res.Eligible || n == 0 || len(res.Warnings) == 0 {
+		t.Fatalf("%d controls of %d eligible, warnings %v", n, res.Eligible, res.Warnings)
+	}
+}
