@@ -3,8 +3,11 @@ package detect
 import (
 	"context"
 	"fmt"
+	"path/filepath"
 	"runtime"
 	"testing"
+
+	"github.com/quorate-eeg/quorate/sampling/candidate"
 )
 
 // cyclicSource serves a short recording repeated to any length, so that a
@@ -39,7 +42,7 @@ func longInput(b *testing.B, seconds float64) (Input, *cyclicSource) {
 }
 
 // BenchmarkDetectHour detects and measures all features in one hour of
-// 19-channel 256 Hz EEG on one goroutine; x-realtime is recording seconds
+// 19-channel 256 Hz EEG (the issue asks for 21; 19 is the 10-20 set the generator makes) on one goroutine; x-realtime is recording seconds
 // per second of computation.
 func BenchmarkDetectHour(b *testing.B) {
 	in, _ := longInput(b, 3600)
@@ -56,27 +59,35 @@ func BenchmarkDetectHour(b *testing.B) {
 	b.ReportMetric(float64(events), "events/hour")
 }
 
-// BenchmarkMemory streams recordings of growing length and reports the peak
-// heap in use, which should not grow with the length apart from the
-// candidate rows themselves.
+// BenchmarkMemory streams recordings of growing length through the finder
+// into a candidate.Writer, as Run does, and reports the peak heap in use,
+// which must not grow with the length (rows are written as produced).
 func BenchmarkMemory(b *testing.B) {
 	for _, h := range []float64{1, 4, 24} {
 		b.Run(fmt.Sprintf("hours=%g", h), func(b *testing.B) {
 			in, src := longInput(b, h*3600)
+			s, err := (&Options{}).settings()
+			if err != nil {
+				b.Fatal(err)
+			}
 			runtime.GC()
-			var ms0, ms1 runtime.MemStats
-			runtime.ReadMemStats(&ms0)
-			var rows int
+			src.peakHeap = 0
+			var rows int64
 			for b.Loop() {
-				r, _, err := Detect(context.Background(), in, Options{})
+				w, err := candidate.NewWriter(filepath.Join(b.TempDir(), "c.parquet"))
 				if err != nil {
 					b.Fatal(err)
 				}
-				rows = len(r)
+				e := newEngine(s, &in)
+				if err := e.run(context.Background(), w.Write); err != nil {
+					b.Fatal(err)
+				}
+				if err := w.Close(); err != nil {
+					b.Fatal(err)
+				}
+				rows = w.Rows()
 			}
-			runtime.ReadMemStats(&ms1)
 			b.ReportMetric(float64(src.peakHeap)/(1<<20), "peak-heap-MB")
-			b.ReportMetric(float64(ms1.TotalAlloc-ms0.TotalAlloc)/float64(b.N)/(1<<20), "alloc-MB/op")
 			b.ReportMetric(float64(rows), "rows")
 		})
 	}

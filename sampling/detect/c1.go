@@ -2,35 +2,27 @@ package detect
 
 import "math"
 
-// sharpStepS is the step of the second difference that measures curvature at
-// the peak. 10 ms spans a few samples at common EEG rates, so the measure
-// reflects the shape of the apex rather than sample-to-sample noise, and is
-// short against the 20 ms shortest spike.
-const sharpStepS = 0.010
-
-// spiky measures criterion 1, spiky morphology (Kane et al. 2017):
+// spiky measures criterion 1, spiky morphology (Kane et al. 2017: "sharp or
+// spiky morphology (i.e. pointed peak)"):
 //
 //	duration  D = (right − left)/fs, the main phase between its turning points, ms
-//	sharpness S = −sign · (x[p−h] − 2x[p] + x[p+h]) / (h/fs)² / A,   1/s²
+//	sharpness P = pointedness of the apex (see pointedness): the curvature at
+//	          the peak per unit amplitude, relative to that of a sine half-wave
+//	          of the same duration D; 1 for a sine, 4.15 for the cusp of two
+//	          symmetric squared ramps
 //	phases    the number of consecutive half-waves at least 20 % of A high,
 //	          the main phase included, within 300 ms on either side
 //
-// with A the main-phase amplitude (mean height of the two half-waves) and h
-// the sample count nearest sharpStepS. S is the curvature at the peak per
-// unit of amplitude: for a triangle with rise R and fall F (seconds, both
-// longer than h) it is (1/R + 1/F)/h exactly, for a smooth cos² bump of
-// length T it is about 2π²/T². Normalising by A rather than |x(p)| keeps a
-// baseline offset out of the measure.
+// with A the main-phase amplitude (the lower of the two half-wave heights).
+// Relating the curvature to the duration makes P scale-free: a short wave is
+// not counted as sharp merely for being short (that is criterion 2's
+// business), only a peak more pointed than a rounded wave of its length is.
 func spiky(t *trace, ph phase) (durMS, sharp float64, phases int) {
 	durMS = float64(ph.right-ph.left) / t.fs * 1000
-	h := max(1, int(math.Round(sharpStepS*t.fs)))
-	p := ph.peak
-	if p-h < t.lo || p+h >= t.hi || !(ph.amp > 0) {
-		return durMS, math.NaN(), 1
+	sharp = pointedness(t.x, t.lo, t.hi, ph)
+	if math.IsNaN(sharp) {
+		return durMS, sharp, 1
 	}
-	hs := float64(h) / t.fs
-	d2 := (float64(t.x[p-h]) - 2*float64(t.x[p]) + float64(t.x[p+h])) / (hs * hs)
-	sharp = -ph.sign * d2 / ph.amp
 	phases = 1 + countPhases(t, ph.left, -1, ph) + countPhases(t, ph.right, +1, ph)
 	return durMS, sharp, phases
 }

@@ -22,9 +22,10 @@ func triangle(n, p, r, f int, a float64) []float32 {
 
 // TestC1Duration checks the main-phase duration and sharpness of triangles
 // of known shape, and their class by the IFCN durations: spike 20 to < 70 ms,
-// sharp wave 70–200 ms (Kane et al. 2017). Sharpness has the closed form
-// (1/R + 1/F)/h for a triangle (rise R, fall F, second-difference step h, all
-// in seconds, h < R, F).
+// sharp wave 70–200 ms (Kane et al. 2017). Sharpness (pointedness) has the
+// closed form (h/R + h/F)/(2 − 2cos(πh/D)) for a triangle (rise R, fall F,
+// duration D = R + F, second-difference step h = D/6, h < R, F): the
+// triangle's second difference over that of a sine half-wave of length D.
 func TestC1Duration(t *testing.T) {
 	const fs = 1000.0 // 1 ms samples make the durations exact
 	for _, c := range []struct {
@@ -47,8 +48,10 @@ func TestC1Duration(t *testing.T) {
 		if (d < 70) != c.spike || d < 20 || d > 200 {
 			t.Errorf("R=%d F=%d: duration %g ms classed wrongly", c.r, c.f, d)
 		}
-		h := sharpStepS
-		want := (1/(float64(c.r)/1000) + 1/(float64(c.f)/1000)) / h
+		// triangle: −Δ²x/A = h/R + h/F; sine half-wave: 2 − 2cos(πh/D)
+		D := float64(c.r + c.f)
+		h := math.Max(2, math.Round(D/6))
+		want := (h/float64(c.r) + h/float64(c.f)) / (2 - 2*math.Cos(math.Pi*h/D))
 		if math.Abs(sharp-want) > 1e-6*want {
 			t.Errorf("R=%d F=%d: sharpness %g, want %g", c.r, c.f, sharp, want)
 		}

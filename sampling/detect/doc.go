@@ -9,8 +9,10 @@
 // (montage, zero-phase band-pass and notch) in overlapping windows, so memory
 // does not grow with the recording's length; in each window every derivation's
 // local extrema whose main-phase amplitude exceeds ThresholdMAD robust background
-// scales, and whose main phase lasts 20–200 ms, are detections; detections within
-// ±MergeMS of each other on any channels are one event. Each event then gets the
+// scales, whose main phase lasts 20–200 ms and whose apex is more pointed than a
+// rounded wave's, are detections; detections within ±MergeMS of each other on any
+// channels are one event, anchored on the sharpest large one. Rows are written as
+// each window is measured. Each event then gets the
 // six criterion features (see FEATURES.md, one file c1.go … c6.go per criterion),
 // the yes/no of each at its cutoff, their count and a ranking score.
 //

@@ -1,7 +1,6 @@
 package detect
 
 import (
-	"context"
 	"math"
 	"os"
 	"path/filepath"
@@ -64,7 +63,7 @@ func TestDiscontinuous(t *testing.T) {
 	}
 	defer r.Close()
 	s, _ := (&Options{}).settings()
-	rows, warns, err := detectFile(context.Background(), s, r, "d", "")
+	rows, warns, err := detectFileRows(s, r, "d")
 	if err != nil {
 		t.Fatal(err, warns)
 	}

@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"sort"
 	"strings"
 
 	"github.com/quorate-eeg/quorate/sampling/candidate"
@@ -250,27 +249,43 @@ func (e *engine) carTraces(w window) [][]float32 {
 }
 
 // scales computes the robust background scale per 1 s block of every
-// derivation over [w.lo, w.hi).
-func (e *engine) scales(w window) (block int) {
+// derivation over [w.lo, w.hi). Blocks are aligned to whole seconds of the
+// input (sample multiples of the block length), not to the window, so that a
+// window cut differently (MeasureAt's) gives the same scales. It returns the
+// block length and the buffer index where block 0 starts; samples before it
+// take block 0's scale.
+func (e *engine) scales(w window) (block, start int) {
 	block = max(1, int(math.Round(e.rate)))
+	start = w.lo + int((int64(block)-(w.base+int64(w.lo))%int64(block))%int64(block))
+	if w.hi-start < block/2 {
+		start = w.lo
+	}
 	h := max(0, int(math.Round(e.s.backS/2)))
 	n := len(e.det)
 	for len(e.med) < n {
 		e.med, e.mad, e.scale = append(e.med, nil), append(e.mad, nil), append(e.scale, nil)
 	}
 	for d := range n {
-		e.med[d], e.mad[d] = blockStats(e.det[d][w.lo:w.hi], block, e.med[d], e.mad[d], e.blk)
+		e.med[d], e.mad[d] = blockStats(e.det[d][start:w.hi], block, e.med[d], e.mad[d], e.blk)
 		e.scale[d] = slidingScale(e.mad[d], h, e.scale[d])
 	}
-	return block
+	return block, start
 }
 
-// run detects in input samples [0, Len) window by window.
-func (e *engine) run(ctx context.Context) ([]candidate.Row, error) {
+// scaleAt is the background scale of derivation d at buffer index i.
+func (e *engine) scaleAt(d, i, block, start int) float64 {
+	sc := e.scale[d]
+	return sc[min(max(i-start, 0)/block, len(sc)-1)]
+}
+
+// run detects in input samples [0, Len) window by window, handing each
+// window's rows, in onset order, to emit as soon as they are measured, so
+// that nothing accumulates over the recording. emit must not keep the slice.
+func (e *engine) run(ctx context.Context, emit func([]candidate.Row) error) error {
 	in := e.in
 	fs := in.Rate
 	if err := e.setRate(fs); err != nil {
-		return nil, err
+		return err
 	}
 	W := int64(math.Round(e.s.windowS * fs))
 	C := int64(math.Ceil(max(contextNeed, e.s.backS/2+0.5) * fs))
@@ -278,26 +293,26 @@ func (e *engine) run(ctx context.Context) ([]candidate.Row, error) {
 	var rows []candidate.Row
 	for ws := int64(0); ws < in.Len; ws += W {
 		if err := ctx.Err(); err != nil {
-			return nil, err
+			return err
 		}
 		we := min(ws+W, in.Len)
 		w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		if !ok {
 			continue
 		}
-		block := e.scales(w)
+		block, bstart := e.scales(w)
 		// detections slightly beyond the window join events inside it
 		from := max(int(ws-w.base)-tol, w.lo)
 		to := min(int(we-w.base)+tol, w.hi)
 		e.dets = e.dets[:0]
 		for d, x := range e.det {
-			sc := e.scale[d]
-			at := func(i int) float64 { return sc[min((i-w.lo)/block, len(sc)-1)] }
+			at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
 			e.dets = findChannel(e.dets, d, x, from, to, fs, e.s.thr, at)
 		}
+		rows = rows[:0]
 		for _, c := range merge(e.dets, tol) {
 			p := int64(c.best.ph.peak) + w.base
 			if p < ws || p >= we {
@@ -305,8 +320,13 @@ func (e *engine) run(ctx context.Context) ([]candidate.Row, error) {
 			}
 			rows = append(rows, e.row(w, c))
 		}
+		if len(rows) > 0 {
+			if err := emit(rows); err != nil {
+				return err
+			}
+		}
 	}
-	return rows, nil
+	return nil
 }
 
 // row measures one event and fills its candidate row.
@@ -385,20 +405,11 @@ func Detect(ctx context.Context, in Input, o Options) ([]candidate.Row, []string
 		return nil, nil, err
 	}
 	e := newEngine(s, &in)
-	rows, err := e.run(ctx)
+	var rows []candidate.Row
+	err = e.run(ctx, func(r []candidate.Row) error { rows = append(rows, r...); return nil })
 	return rows, e.warnings, err
 }
 
 func newEngine(s *settings, in *Input) *engine {
 	return &engine{s: s, in: in, source: "builtin", mons: map[string]*montages{}}
-}
-
-// sortRows orders rows by onset, then peak channel, for stable output.
-func sortRows(rows []candidate.Row) {
-	sort.SliceStable(rows, func(a, b int) bool {
-		if rows[a].OnsetS != rows[b].OnsetS {
-			return rows[a].OnsetS < rows[b].OnsetS
-		}
-		return rows[a].PeakChannel < rows[b].PeakChannel
-	})
 }

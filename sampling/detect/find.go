@@ -11,6 +11,7 @@ type detection struct {
 	deriv int
 	ph    phase
 	z     float64 // main-phase amplitude in background scales
+	point float64 // pointedness of the apex
 }
 
 // Main-phase duration limits of a sharp transient: 20 ms, the shortest
@@ -19,6 +20,21 @@ const (
 	minPhaseS = 0.020
 	maxPhaseS = 0.200
 )
+
+// minPoint is the least pointedness of a detection: a third more curved at
+// the apex than a sine half-wave of the same duration. Rounded background
+// waves score about 1 or less; the finder stays liberal (a cos² bump, 1.87,
+// passes) but ignores the bulk of the ongoing rhythm.
+const minPoint = 1.33
+
+// rankPointCap caps the pointedness that enters an event's ranking, so a
+// cusp of a few samples on a small wave does not outrank a large transient.
+const rankPointCap = 4.0
+
+// rank orders detections when events are merged: amplitude in background
+// scales times capped pointedness, so a sharp transient anchors its event
+// rather than a larger rounded background wave on another channel nearby.
+func (d detection) rank() float64 { return d.z * min(d.point, rankPointCap) }
 
 // findChannel appends to dets the extrema of x in [from, to) whose main
 // phase lasts 20–200 ms and is at least thr background scales high.
@@ -40,7 +56,11 @@ func findChannel(dets []detection, d int, x []float32, from, to int, fs, thr flo
 		if n < minLen || n > maxLen || ph.amp < thr*sc {
 			continue
 		}
-		dets = append(dets, detection{deriv: d, ph: ph, z: ph.amp / sc})
+		pt := pointedness(x, 0, len(x), ph)
+		if !(pt >= minPoint) {
+			continue
+		}
+		dets = append(dets, detection{deriv: d, ph: ph, z: ph.amp / sc, point: pt})
 	}
 	return dets
 }
@@ -66,7 +86,7 @@ func merge(dets []detection, tol int) []cluster {
 	}
 	sort.SliceStable(byTime, func(a, b int) bool { return dets[byTime[a]].ph.peak < dets[byTime[b]].ph.peak })
 	byZ := slices.Clone(byTime)
-	sort.SliceStable(byZ, func(a, b int) bool { return dets[byZ[a]].z > dets[byZ[b]].z })
+	sort.SliceStable(byZ, func(a, b int) bool { return dets[byZ[a]].rank() > dets[byZ[b]].rank() })
 	times := make([]int, len(byTime))
 	for k, i := range byTime {
 		times[k] = dets[i].ph.peak

@@ -1,6 +1,10 @@
 package detect
 
 import (
+	"context"
+
+	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/sampling/edf"
 	"sync"
 	"testing"
 
@@ -76,4 +80,14 @@ func inputOf(rec *synth.Recording) Input {
 		}
 	}
 	return Input{RecordingID: "synth", Labels: labels, Rate: rec.Rate, Len: int64(len(data[0])), Src: data}
+}
+
+// detectFileRows collects detectFile's rows.
+func detectFileRows(s *settings, r *edf.Reader, recID string) ([]candidate.Row, []string, error) {
+	var rows []candidate.Row
+	warns, err := detectFile(context.Background(), s, r, recID, "", func(w []candidate.Row) error {
+		rows = append(rows, w...)
+		return nil
+	})
+	return rows, warns, err
 }

@@ -90,8 +90,9 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 		e.warn("onset %s: window could not be conditioned", formatS(t))
 		return candidate.Row{}, false, err
 	}
-	block := e.scales(w)
+	block, bstart := e.scales(w)
 	maxN := int(math.Ceil(maxPhaseS * fs))
+	tol := int(math.Round(e.s.mergeS * fs))
 	// the finder's own detection nearest the onset; failing that, the
 	// extremum largest in background scales
 	var best detection
@@ -99,31 +100,40 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 	minLen, maxLen := minPhaseS*fs, maxPhaseS*fs
 	ci := int(c - w.base)
 	for d, x := range e.det {
-		sc := e.scale[d]
 		for i := max(int(ws-w.base), 1); i < min(int(we-w.base), len(x)-1); i++ {
 			ok, sign := isExtremum(x, i)
 			if !ok {
 				continue
 			}
-			s := sc[min((i-w.lo)/block, len(sc)-1)]
+			s := e.scaleAt(d, i, block, bstart)
 			if !(s > 0) {
 				continue
 			}
 			ph := mainPhase(x, i, sign, maxN, 0.25*s)
-			n, z := float64(ph.right-ph.left), ph.amp/s
-			pass := n >= minLen && n <= maxLen && z >= e.s.thr
+			n := float64(ph.right - ph.left)
+			cand := detection{deriv: d, ph: ph, z: ph.amp / s, point: pointedness(x, 0, len(x), ph)}
+			pass := n >= minLen && n <= maxLen && cand.z >= e.s.thr && cand.point >= minPoint
 			better := false
 			switch {
 			case !found, pass && !passes:
 				better = true
 			case pass && passes:
+				// as the finder merges: the strongest within the merge
+				// tolerance of the onset, else the nearest
 				dn, db := abs(i-ci), abs(best.ph.peak-ci)
-				better = dn < db || (dn == db && z > best.z)
+				switch in, ib := dn <= tol, db <= tol; {
+				case in && ib:
+					better = cand.rank() > best.rank()
+				case in != ib:
+					better = in
+				default:
+					better = dn < db
+				}
 			case !pass && !passes:
-				better = z > best.z
+				better = cand.z > best.z
 			}
 			if better {
-				best, found, passes = detection{deriv: d, ph: ph, z: z}, true, pass
+				best, found, passes = cand, true, pass
 			}
 		}
 	}
@@ -131,12 +141,10 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 		e.warn("onset %s: no peak within ±100 ms", formatS(t))
 		return candidate.Row{}, false, nil
 	}
-	tol := int(math.Round(e.s.mergeS * fs))
 	cl := cluster{best: best, members: []int{best.deriv}}
 	var dets []detection
 	for d, x := range e.det {
-		sc := e.scale[d]
-		at := func(i int) float64 { return sc[min((i-w.lo)/block, len(sc)-1)] }
+		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
 		dets = findChannel(dets[:0], d, x, max(best.ph.peak-tol, w.lo), min(best.ph.peak+tol+1, w.hi), fs, e.s.thr, at)
 		if len(dets) > 0 && d != best.deriv {
 			cl.members = append(cl.members, d)
@@ -145,23 +153,20 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 	return e.row(w, cl), true, nil
 }
 
-// Detect is also available per recording file through Run; detectFile runs
-// every segment of one EDF-family file.
-func detectFile(ctx context.Context, s *settings, r *edf.Reader, recID, subject string) ([]candidate.Row, []string, error) {
+// detectFile runs every segment of one EDF-family file, in order, handing
+// rows to emit as each window is done (see engine.run).
+func detectFile(ctx context.Context, s *settings, r *edf.Reader, recID, subject string, emit func([]candidate.Row) error) ([]string, error) {
 	ins, warns, err := edfInputs(r, recID, subject)
 	if err != nil {
-		return nil, warns, err
+		return warns, err
 	}
-	var rows []candidate.Row
 	for i := range ins {
 		e := newEngine(s, &ins[i])
-		rs, err := e.run(ctx)
+		err := e.run(ctx, emit)
 		warns = append(warns, e.warnings...)
 		if err != nil {
-			return nil, warns, err
+			return warns, err
 		}
-		rows = append(rows, rs...)
 	}
-	sortRows(rows)
-	return rows, warns, nil
+	return warns, nil
 }

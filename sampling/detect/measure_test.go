@@ -1,7 +1,6 @@
 package detect
 
 import (
-	"context"
 	"math"
 	"testing"
 
@@ -53,7 +52,7 @@ func TestMeasureAt(t *testing.T) {
 		t.Errorf("only %d of %d peaks recovered", near, len(rows))
 	}
 	// same features as the finder at the finder's onsets
-	found, _, err := detectFile(context.Background(), mustSettings(t), r, "m", "")
+	found, _, err := detectFileRows(mustSettings(t), r, "m")
 	if err != nil {
 		t.Fatal(err)
 	}

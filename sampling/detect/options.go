@@ -22,7 +22,7 @@ type Options struct {
 	Montage      string     // a montage.ParseKind name; "common-average"
 	Bandpass     [2]float64 // Hz; {0.5, 70}, the upper edge capped at 0.45×rate
 	NotchHz      float64    // mains notch, Hz; 50; negative for none
-	ThresholdMAD float64    // detection threshold in robust background scales; 5
+	ThresholdMAD float64    // detection threshold in robust background scales; 3
 	BackgroundS  float64    // span of the robust background scale, s; 10
 	MergeMS      float64    // cross-channel merge tolerance, ms; 50
 	// Cutoffs overrides the criterion cutoffs of DefaultCutoffs, by their
@@ -42,14 +42,14 @@ type Options struct {
 // documented in FEATURES.md. The values are common practice or, where no
 // convention exists, a documented first guess that the tuner replaces.
 var DefaultCutoffs = map[string]float64{
-	"c1_duration_ms":        200,  // Kane et al. (2017): spike < 70 ms, sharp wave 70–200 ms
-	"c1_sharpness":          1500, // 1/s², see FEATURES.md
-	"c2_duration_log_ratio": 0.7,  // |ln| ≥ ln 2: half or twice the background half-period
-	"c3_asymmetry":          1.3,  // common practice
-	"c4_slow_wave_ratio":    1.5,  // background standard deviations
-	"c5_disruption":         0.3,  // −ln of the post-event activity ratio
-	"c6_dipole_gof":         0.8,  // common practice for equivalent dipole fits
-	"c6_field_extent":       2,    // channels at ≥ 50 % of the peak
+	"c1_duration_ms":        200, // Kane et al. (2017): spike < 70 ms, sharp wave 70–200 ms
+	"c1_sharpness":          2,   // pointedness: above a cos² bump (1.87), below a triangle (2.49); first guess
+	"c2_duration_log_ratio": 0.7, // |ln| ≥ ln 2: half or twice the background half-period
+	"c3_asymmetry":          1.3, // common practice
+	"c4_slow_wave_ratio":    1.5, // background standard deviations
+	"c5_disruption":         0.3, // −ln of the post-event activity ratio
+	"c6_dipole_gof":         0.8, // common practice for equivalent dipole fits
+	"c6_field_extent":       2,   // channels at ≥ 50 % of the peak
 }
 
 // settings are Options with defaults filled in and the montage parsed.
@@ -71,7 +71,7 @@ func (o *Options) settings() (*settings, error) {
 	s := &settings{
 		band:    [2]float64{0.5, 70},
 		notch:   50,
-		thr:     5,
+		thr:     3,
 		backS:   10,
 		mergeS:  0.05,
 		windowS: 120,

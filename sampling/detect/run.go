@@ -134,17 +134,32 @@ func runOne(ctx context.Context, s *settings, roots []string, outDir string, sha
 		return fail("open", err)
 	}
 	defer f.Close()
-	rows, warns, err := detectFile(ctx, s, f, r.RecordingID, r.SubjectKey)
+	// rows are written as each window is measured, so memory does not grow
+	// with the recording; the table appears only when complete
+	out, err := candidate.NewWriter(OutputPath(outDir, shard, r.RecordingID))
 	if err != nil {
+		return fail("write", err)
+	}
+	defer out.Abort()
+	var werr error
+	warns, err := detectFile(ctx, s, f, r.RecordingID, r.SubjectKey, func(rows []candidate.Row) error {
+		werr = out.Write(rows)
+		return werr
+	})
+	switch {
+	case werr != nil:
+		_, _, e := fail("write", werr)
+		return 0, warns, e
+	case err != nil:
 		if errors.Is(err, context.Canceled) || errors.Is(err, context.DeadlineExceeded) {
 			return 0, warns, err
 		}
 		_, _, e := fail("read", err)
 		return 0, warns, e
 	}
-	if err := candidate.Write(OutputPath(outDir, shard, r.RecordingID), rows); err != nil {
+	if err := out.Close(); err != nil {
 		_, _, e := fail("write", err)
 		return 0, warns, e
 	}
-	return len(rows), warns, nil
+	return int(out.Rows()), warns, nil
 }

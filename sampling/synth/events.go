@@ -125,7 +125,7 @@ func (m *eventMaker) ied(r *rand.Rand) (*plan, error) {
 	d := jitter(r, m.focus, 15)
 	e.DipolePos = scale(d, uni(r, 0.7, 0.85))
 	e.DipoleMoment, e.Orientation = orient(r, d)
-	e.SNR = logUni(r, 1.5, 6)
+	e.SNR = logUni(r, 3, 6)
 	return m.dipolar(e)
 }
 
