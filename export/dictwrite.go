@@ -27,7 +27,7 @@ func writeSchemaJSON(w io.Writer, d *Dictionary) error {
 
 func writeDictionaryMD(w io.Writer, d *Dictionary) error {
 	var b strings.Builder
-	fmt.Fprintf(&b, "# Data dictionary\n\nExported by quorate as %s. ", d.Format)
+	fmt.Fprintf(&b, "# Data dictionary\n\n> %s\n\nExported by quorate as %s. ", Caution, d.Format)
 	switch d.Format {
 	case "parquet":
 		b.WriteString("Missing values are Parquet nulls; booleans are Parquet booleans.\n")

@@ -9,3 +9,9 @@
 // is written: subjects appear by subject key, recordings by recording id, and dates are
 // either shifted per subject by the caller's offsets or reduced to the year.
 package export
+
+import "github.com/quorate-eeg/quorate/internal/caution"
+
+// Caution is printed at the top of every data dictionary: the labels are a research
+// reference set, not a diagnosis.
+const Caution = caution.Text

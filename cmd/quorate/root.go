@@ -13,6 +13,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	cautionText "github.com/quorate-eeg/quorate/internal/caution"
 )
 
 // Version is set at build time with -ldflags "-X main.Version=…".
@@ -50,9 +51,7 @@ func (e warningsError) Error() string {
 	return fmt.Sprintf("finished with %d warning(s) and --strict is set", e.n)
 }
 
-const caution = `quorate is a research and quality tool, not a diagnostic device. Validate any operating
-point locally; clinical decisions rest with qualified clinicians; follow local rules on
-data protection.`
+var caution = wrap(cautionText.Text, 90)
 
 func newRoot(g *globals) *cobra.Command {
 	root := &cobra.Command{
@@ -161,4 +160,24 @@ func (g *globals) finish(warnings int) error {
 		return warningsError{warnings}
 	}
 	return nil
+}
+
+// wrap breaks text into lines of at most width characters, at spaces.
+func wrap(text string, width int) string {
+	var b strings.Builder
+	n := 0
+	for i, w := range strings.Fields(text) {
+		if i > 0 {
+			if n+1+len(w) > width {
+				b.WriteByte('\n')
+				n = 0
+			} else {
+				b.WriteByte(' ')
+				n++
+			}
+		}
+		b.WriteString(w)
+		n += len(w)
+	}
+	return b.String()
 }

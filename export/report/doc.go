@@ -6,5 +6,7 @@
 // consensus.Agreement.
 package report
 
+import "github.com/quorate-eeg/quorate/internal/caution"
+
 // Caution is printed near the top of both reports.
-const Caution = "quorate is a research and quality tool, not a diagnostic device. Validate any operating point locally; clinical decisions rest with qualified clinicians; follow local rules on data protection."
+const Caution = caution.Text

@@ -205,7 +205,7 @@ func TestOperatingPointDecide(t *testing.T) {
 		f    [6]float64
 		want bool
 	}{
-		{[6]float64{6, 0, 1.0, 0, 0, 0.5}, true},  // c1 and c3 met
+		{[6]float64{6, 0, 1.0, 0, 0, 0.5}, true},   // c1 and c3 met
 		{[6]float64{6, 99, 2.0, 0, 0, 0.5}, false}, // only c1 (c2 left out)
 		{[6]float64{nan, 0, 1.0, 0, 0, 0.9}, true}, // c3 and c6
 		{[6]float64{5, 0, 1.2, 0, 0, nan}, true},   // cutoffs are inclusive

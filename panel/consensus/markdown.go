@@ -1,6 +1,8 @@
 package consensus
 
 import (
+	"github.com/quorate-eeg/quorate/internal/caution"
+
 	"fmt"
 
 	"github.com/quorate-eeg/quorate/internal/jsonx"
@@ -10,7 +12,7 @@ import (
 )
 
 // Caution is printed on every report.
-const Caution = "quorate is a research and quality tool, not a diagnostic device. Validate any operating point locally; clinical decisions rest with qualified clinicians; follow local rules on data protection."
+const Caution = caution.Text
 
 // WriteMarkdown writes the agreement report for people: one table of coefficients per
 // question, then each rater against the others and against themself.

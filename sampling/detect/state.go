@@ -1,0 +1,84 @@
+package detect
+
+import (
+	"regexp"
+	"sort"
+	"strings"
+
+	"github.com/quorate-eeg/quorate/sampling/edf"
+)
+
+// Vigilance states a recording's annotations may give.
+const (
+	StateUnknown = "unknown"
+	StateAwake   = "awake"
+	StateDrowsy  = "drowsy" // also N1
+	StateN2      = "n2"
+	StateN3      = "n3"
+	StateREM     = "rem"
+)
+
+// stagePatterns recognise the usual wordings of sleep-stage annotations (the stages of
+// the AASM scoring manual, Berry et al. 2017: W, N1, N2, N3, R; and the older
+// Rechtschaffen & Kales 1968 stages 1–4 and REM). The first match wins.
+var stagePatterns = []struct {
+	re    *regexp.Regexp
+	state string
+}{
+	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(w|wake|awake|wakefulness)\s*$`), StateAwake},
+	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(n1|s1|1|drowsy|drowsiness)\s*$`), StateDrowsy},
+	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(n2|s2|2)\s*$`), StateN2},
+	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(n3|s3|s4|3|4)\s*$`), StateN3},
+	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(r|rem)\s*$`), StateREM},
+}
+
+// StageOf returns the vigilance state an annotation text names, or "" when it names
+// none.
+func StageOf(text string) string {
+	t := strings.TrimSpace(text)
+	for _, p := range stagePatterns {
+		if p.re.MatchString(t) {
+			return p.state
+		}
+	}
+	return ""
+}
+
+// StateSpan is a stretch of one vigilance state.
+type StateSpan struct {
+	Start, End float64 // seconds from the recording start; End is +Inf for "until the next"
+	State      string
+}
+
+// States turns sleep-stage annotations into spans. An annotation with a duration covers
+// [onset, onset+duration); one without covers until the next stage annotation.
+func States(anns []edf.Annotation) []StateSpan {
+	var spans []StateSpan
+	for _, a := range anns {
+		if s := StageOf(a.Text); s != "" {
+			end := inf
+			if a.HasDuration && a.Duration > 0 {
+				end = a.Onset + a.Duration
+			}
+			spans = append(spans, StateSpan{a.Onset, end, s})
+		}
+	}
+	sort.SliceStable(spans, func(i, j int) bool { return spans[i].Start < spans[j].Start })
+	for i := range spans {
+		if i+1 < len(spans) && spans[i].End > spans[i+1].Start {
+			spans[i].End = spans[i+1].Start
+		}
+	}
+	return spans
+}
+
+// StateAt returns the state at time t, or StateUnknown.
+func StateAt(spans []StateSpan, t float64) string {
+	i := sort.Search(len(spans), func(i int) bool { return spans[i].Start > t }) - 1
+	if i >= 0 && t < spans[i].End {
+		return spans[i].State
+	}
+	return StateUnknown
+}
+
+var inf = func() float64 { var z float64; return 1 / z }()
