@@ -3,6 +3,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"text/tabwriter"
 
 	"github.com/spf13/cobra"
 
@@ -95,8 +96,12 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		Outputs: s.Hash(s.Path(study.ConsensusDir)), Notes: notes}); rerr != nil {
 		return rerr
 	}
-	fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored, %d superseded); consensus on %d events in %s.\n",
-		len(res.Accepted), len(res.Duplicates), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
+	if res.Events > 0 {
+		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored, %d superseded); consensus on %d events in %s.\n",
+			len(res.Accepted), len(res.Duplicates), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
+	} else {
+		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored); the consensus is unchanged.\n", len(res.Accepted), len(res.Duplicates))
+	}
 	if res.Agreement != nil {
 		for _, q := range res.Agreement.Questions {
 			fmt.Fprintf(g.stdout, "  %-8s Fleiss' kappa %.2f (%.2f to %.2f), %s\n", q.Question, q.Fleiss.Value, q.Fleiss.Lo, q.Fleiss.Hi, q.FleissBand)
@@ -133,10 +138,12 @@ func newStatusCmd(g *globals) *cobra.Command {
 				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate}}); err != nil {
 				return err
 			}
-			fmt.Fprintf(g.stdout, "%-28s %-16s %-16s %6s %6s %8s %10s\n", "packet", "rater", "state", "items", "owes", "returns", "superseded")
+			tw := tabwriter.NewWriter(g.stdout, 0, 0, 2, ' ', 0)
+			fmt.Fprintln(tw, "packet\trater\tstate\titems\towes\treturns\tsuperseded\t")
 			for _, p := range st.Packets {
-				fmt.Fprintf(g.stdout, "%-28s %-16s %-16s %6d %6d %8d %10d\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
+				fmt.Fprintf(tw, "%s\t%s\t%s\t%d\t%d\t%d\t%d\t\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
 			}
+			tw.Flush()
 			if st.ConsensusUpToDate {
 				fmt.Fprintln(g.stdout, "The consensus is up to date with the returns.")
 			} else {

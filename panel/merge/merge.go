@@ -8,6 +8,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 	"time"
@@ -92,7 +93,7 @@ func Run(o Options) (*Result, error) {
 			res.Rejected = append(res.Rejected, err)
 			continue
 		}
-		ret, err := returns.Parse(filepath.Base(f), data, o.Manifest)
+		ret, err := returns.Parse(f, data, o.Manifest)
 		if err != nil {
 			res.Rejected = append(res.Rejected, err)
 			continue
@@ -125,7 +126,9 @@ func Run(o Options) (*Result, error) {
 			res.Superseded = append(res.Superseded, e)
 		}
 	}
-	if len(after) > 0 {
+	// The consensus is rebuilt only when what counts has changed (or it was never built
+	// from it), so a merge that accepts nothing changes nothing.
+	if len(after) > 0 && (len(add) > 0 || !builtFrom(o.ConsensusDir, after)) {
 		if err := rebuild(o, after, res); err != nil {
 			return nil, err
 		}
@@ -210,6 +213,26 @@ func rebuild(o Options, counting map[string]Entry, res *Result) error {
 	}
 	b, _ := json.MarshalIndent(map[string]any{"returns": hashes}, "", "  ")
 	return atomicfile.WriteBytes(filepath.Join(dir, InputsFile), append(b, '\n'), 0o644)
+}
+
+// builtFrom reports whether the consensus in dir was built from exactly the returns
+// that count.
+func builtFrom(dir string, counting map[string]Entry) bool {
+	b, err := os.ReadFile(filepath.Join(dir, InputsFile))
+	if err != nil {
+		return false
+	}
+	var in struct{ Returns []string }
+	if json.Unmarshal(b, &in) != nil {
+		return false
+	}
+	want := make([]string, 0, len(counting))
+	for _, e := range counting {
+		want = append(want, e.SHA256)
+	}
+	sort.Strings(want)
+	sort.Strings(in.Returns)
+	return slices.Equal(want, in.Returns)
 }
 
 func ratingOf(ret *returns.Return, a returns.Answer, k packet.KeyRow, hash string) consensus.Rating {
