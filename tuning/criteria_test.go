@@ -74,8 +74,8 @@ func TestCriterionAUCAgainstScipy(t *testing.T) {
 }
 
 // False detections per hour in the score sweep, closed form: at threshold
-// 0.5 the reference-negative candidates above it weigh 4 + 2 (the control
-// does not count), over 3 hours = 2 per hour.
+// 0.5 the reference-negative candidates above it weigh 4 + 2 (the control is
+// kept out of every rule's figures), over 3 hours = 2 per hour.
 func TestScoreFalsePerHour(t *testing.T) {
 	ev := []Event{
 		{Score: 0.9, Reference: 1, Weight: 1, Kind: "candidate"},
@@ -93,11 +93,55 @@ func TestScoreFalsePerHour(t *testing.T) {
 	sw, _ := scoreSweep(s, accuracy.Policy{Kind: accuracy.Youden}, 0.95)
 	for _, p := range sw.Curve {
 		if p.Threshold == 0.5 {
-			if p.FalsePerHour != 2 || p.Weighted.FP != 11 || p.Counts.FP != 3 || p.Weighted.TP != 1 {
+			if p.FalsePerHour != 2 || p.Weighted.FP != 6 || p.Counts.FP != 2 || p.Weighted.TP != 1 {
 				t.Errorf("at 0.5: %+v", p)
 			}
 			return
 		}
 	}
 	t.Error("threshold 0.5 missing")
+}
+
+// Missed IEDs per hour from background controls, closed form: four controls drawn from
+// M = 40 eligible epochs (weight 10 each), one of them an IED, over 5 hours: Ŷ = 10,
+// 2 per hour; the interval is the Wilson interval of 1/4 (Newcombe 1998, method 3:
+// 0.0456 to 0.6994 for 1 of 4, computed from its closed form) times 40/5 epochs per hour.
+func TestControlSummary(t *testing.T) {
+	ev := []Event{
+		{Score: 0.9, Reference: 1, Weight: 1, Kind: "candidate"},
+		{Score: 0.1, Reference: 0, Weight: 1, Kind: "candidate"},
+		{Reference: 1, Weight: 10, Kind: "control", Stratum: "control"},
+		{Reference: 0, Weight: 10, Kind: "control", Stratum: "control"},
+		{Reference: 0, Weight: 10, Kind: "control", Stratum: "control"},
+		{Reference: 0, Weight: 10, Kind: "control", Stratum: "control"},
+	}
+	o := Options{Events: ev, RecordingHours: 5}
+	s, _, err := prepare(&o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.n() != 2 {
+		t.Fatalf("%d events in the rule's figures, want the 2 candidates", s.n())
+	}
+	c := controlSummary(s, 0.95)
+	if c.Rated != 4 || c.IEDs != 1 || math.Abs(c.MissedPerHour.Value-2) > 1e-12 {
+		t.Fatalf("controls %+v", c)
+	}
+	// Wilson (1927): (x + z²/2 ± z√(x(n−x)/n + z²/4)) / (n + z²), x = 1, n = 4.
+	z := 1.959963985
+	lo := (1 + z*z/2 - z*math.Sqrt(0.75+z*z/4)) / (4 + z*z)
+	hi := (1 + z*z/2 + z*math.Sqrt(0.75+z*z/4)) / (4 + z*z)
+	if math.Abs(c.MissedPerHour.Lo-lo*8) > 1e-6 || math.Abs(c.MissedPerHour.Hi-hi*8) > 1e-6 {
+		t.Errorf("interval %v–%v, want %v–%v", c.MissedPerHour.Lo, c.MissedPerHour.Hi, lo*8, hi*8)
+	}
+	// No IED among the controls still gives an upper bound above zero.
+	for i := range ev {
+		if ev[i].Kind == "control" {
+			ev[i].Reference = 0
+		}
+	}
+	s, _, _ = prepare(&o)
+	if c := controlSummary(s, 0.95); !(c.MissedPerHour.Hi > 0) || c.MissedPerHour.Value != 0 {
+		t.Errorf("zero IEDs: %+v", c.MissedPerHour)
+	}
 }

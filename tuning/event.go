@@ -42,7 +42,8 @@ type evset struct {
 	weight    []float64
 	stratum   []string
 	subject   []string
-	candidate []bool // Kind is candidate: counts towards false detections per hour
+	candidate []bool   // Kind is candidate: counts towards false detections per hour
+	controls  []*Event // background controls with a reference, kept apart
 	hours     float64
 }
 
@@ -112,6 +113,13 @@ func prepare(o *Options) (*evset, int, error) {
 			continue
 		}
 		consensus = true
+		if e.Kind == "control" {
+			// Background epochs are not events a rule is applied to: counted among the
+			// negatives they would inflate every specificity by the weight of all the
+			// archive's quiet seconds. They measure what the finder misses instead.
+			s.controls = append(s.controls, e)
+			continue
+		}
 		s.src = append(s.src, e)
 		s.truth = append(s.truth, e.Reference == 1)
 		s.weight = append(s.weight, e.Weight)
@@ -121,6 +129,9 @@ func prepare(o *Options) (*evset, int, error) {
 	}
 	if !consensus {
 		return nil, 0, &NoDataError{Msg: "no event has a panel consensus or a reference: run quorate merge first"}
+	}
+	if s.n() == 0 && len(s.controls) > 0 {
+		return nil, 0, &NoDataError{Msg: "only background controls have a reference: no candidate event to tune on"}
 	}
 	if s.n() == 0 {
 		return nil, 0, &NoDataError{Msg: "no event has a reference standard (all unknown): run quorate merge first, or choose another reference"}

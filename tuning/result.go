@@ -40,5 +40,15 @@ type Result struct {
 	Auto     AutoRule        // analysis (c), the joint rule
 	Score    ScoreSweep      // analysis (d)
 	Final    OperatingPoint  // analysis (e) and the choice
+	Controls Controls        // what the background controls say about missed IEDs
 	Warnings []string
+}
+
+// Controls summarises the background controls: epochs drawn uniformly in recording time
+// away from every candidate. An IED among them is one the finder missed, so their
+// design-weighted count projects the IEDs missed per recording hour.
+type Controls struct {
+	Rated         int      // controls with a reference
+	IEDs          int      // of which the reference calls IED
+	MissedPerHour Estimate // design-weighted IEDs per recording hour outside the candidates
 }

@@ -72,6 +72,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		folds = accuracy.GroupKFold(s.subject, k, o.Seed)
 	}
 
+	res.Controls = controlSummary(s, o.Level)
 	res.KSweep = kSweep(s, &o, o.Level)
 	res.Subsets = subsetAnalysis(s, folds, o.Level)
 	for j := range 6 {

@@ -100,8 +100,16 @@ type OperatingPoint struct {
 	InSample          MetricsJSON       `json:"in_sample"`
 	CrossValidated    *MetricsJSON      `json:"cross_validated"`
 	Bootstrap         *BootstrapJSON    `json:"bootstrap"`
+	Controls          ControlsJSON      `json:"background_controls"`
 	InputHashes       map[string]string `json:"input_sha256"`
 	Warnings          []string          `json:"warnings"`
+}
+
+// ControlsJSON is what the background controls say about IEDs the finder missed.
+type ControlsJSON struct {
+	Rated         int      `json:"rated"`
+	IEDs          int      `json:"ieds"`
+	MissedPerHour Interval `json:"missed_ieds_per_hour"`
 }
 
 // NewOperatingPoint assembles operating-point.json from a result.
@@ -113,6 +121,7 @@ func NewOperatingPoint(res *tuning.Result, meta Meta) OperatingPoint {
 		Events: res.Events, Subjects: res.Subjects, RecordingHours: jsonx.Float(res.RecordingHours),
 		Level: jsonx.Float(res.Level), Seed: strconv.FormatUint(res.Seed, 10),
 		InSample: metrics(f.InSample), InputHashes: meta.InputHashes, Warnings: res.Warnings,
+		Controls: ControlsJSON{res.Controls.Rated, res.Controls.IEDs, iv(res.Controls.MissedPerHour)},
 	}
 	if op.Warnings == nil {
 		op.Warnings = []string{}

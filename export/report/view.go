@@ -2,6 +2,7 @@ package report
 
 import (
 	"fmt"
+	"math"
 	"time"
 
 	"github.com/quorate-eeg/quorate/panel/consensus"
@@ -82,6 +83,13 @@ func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 			v.Policy, num(pt.Threshold), pctCI(sc.At.Design.Sens), pctCI(sc.At.Design.PPV), numCI(sc.At.FalsePerHour)))
 	} else if sc.N > 0 {
 		v.Score = append(v.Score, fmt.Sprintf("No score threshold meets %s.", v.Policy))
+	}
+	if c := res.Controls; c.Rated > 0 {
+		line := fmt.Sprintf("The panel rated %d background controls (epochs drawn at random away from every candidate, kept out of the figures above) and called %d of them IEDs: IEDs the finder missed.", c.Rated, c.IEDs)
+		if !math.IsNaN(c.MissedPerHour.Value) {
+			line += fmt.Sprintf(" Projected to the archive: %s missed IEDs per hour of recording.", numCI(c.MissedPerHour))
+		}
+		v.Score = append(v.Score, line)
 	}
 	if agr != nil {
 		for _, q := range agr.Questions {

@@ -16,6 +16,12 @@ const madToSD = 1.482602218505602
 // the robust scale costs a few operations per sample rather than a sort per
 // sample (Hoare 1961, "Algorithm 65: Find", Commun ACM 4(7):321–322).
 func blockStats(x []float32, n int, med, mad []float64, scratch []float32) ([]float64, []float64) {
+	return blockStatsStride(x, n, 1, med, mad, scratch)
+}
+
+// blockStatsStride is blockStats on every stride-th sample of each block,
+// counted from the block's start.
+func blockStatsStride(x []float32, n, stride int, med, mad []float64, scratch []float32) ([]float64, []float64) {
 	med, mad = med[:0], mad[:0]
 	for s := 0; s < len(x); s += n {
 		e := min(s+n, len(x))
@@ -25,9 +31,13 @@ func blockStats(x []float32, n int, med, mad []float64, scratch []float32) ([]fl
 			mad = append(mad, mad[len(mad)-1])
 			continue
 		}
-		b := append(scratch[:0], x[s:e]...)
+		b := scratch[:0]
+		for i := s; i < e; i += stride {
+			b = append(b, x[i])
+		}
+		scratch = b
 		m := median32(b)
-		for i, v := range x[s:e] {
+		for i, v := range b {
 			b[i] = float32(math.Abs(float64(v) - m))
 		}
 		med = append(med, m)

@@ -3,8 +3,13 @@ package detect
 import (
 	"context"
 	"fmt"
+	"math"
+	"os"
 	"path/filepath"
 	"runtime"
+	"sort"
+	"strconv"
+	"strings"
 	"testing"
 
 	"github.com/quorate-eeg/quorate/sampling/candidate"
@@ -90,5 +95,134 @@ func BenchmarkMemory(b *testing.B) {
 			b.ReportMetric(float64(src.peakHeap)/(1<<20), "peak-heap-MB")
 			b.ReportMetric(float64(rows), "rows")
 		})
+	}
+}
+
+// TestFinderTradeoff is a diagnostic, run only with QUORATE_DIAG set: the
+// finder alone (no features) on generated recordings at several thresholds,
+// logging recall of the inserted IEDs (anchor peak within 20 ms of the true
+// onset) against candidates per minute — the trade-off table of FEATURES.md.
+func TestFinderTradeoff(t *testing.T) {
+	if os.Getenv("QUORATE_DIAG") == "" {
+		t.Skip("diagnostic; set QUORATE_DIAG=1")
+	}
+	seeds := []uint64{1, 2, 3, 4}
+	thrs := []float64{3, 3.5, 4, 4.5, 5, 5.5, 6}
+	if v := os.Getenv("QUORATE_DIAG_THR"); v != "" {
+		thrs = nil
+		for _, f := range strings.Fields(v) {
+			x, _ := strconv.ParseFloat(f, 64)
+			thrs = append(thrs, x)
+		}
+	}
+	if v, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_AMP"), 64); err == nil {
+		minAmpZ = v
+	}
+	if v, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_POINT"), 64); err == nil {
+		minPoint = v
+	}
+	if v := strings.Fields(os.Getenv("QUORATE_DIAG_NMS")); len(v) == 2 {
+		complexBeforeS, _ = strconv.ParseFloat(v[0], 64)
+		complexAfterS, _ = strconv.ParseFloat(v[1], 64)
+	}
+	for _, thr := range thrs {
+		found, n, cands, minutes := 0, 0, 0, 0.0
+		var missed []string
+		for _, seed := range seeds {
+			g := generated(t, seed, 10)
+			in := inputOf(g)
+			s, err := (&Options{ThresholdMAD: thr}).settings()
+			if err != nil {
+				t.Fatal(err)
+			}
+			e := newEngine(s, &in)
+			if err := e.setRate(in.Rate); err != nil {
+				t.Fatal(err)
+			}
+			var onsets []float64
+			var cls []cluster
+			W := int64(math.Round(s.windowS * in.Rate))
+			C := int64(math.Ceil(max(contextNeed, s.backS/2+0.5) * in.Rate))
+			for ws := int64(0); ws < in.Len; ws += W {
+				we := min(ws+W, in.Len)
+				w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
+				if err != nil || !ok {
+					t.Fatal(err, ok)
+				}
+				for _, c := range e.find(w, ws, we) {
+					onsets = append(onsets, float64(w.base+int64(c.best.ph.peak))/in.Rate)
+					cls = append(cls, c)
+				}
+			}
+			cands += len(onsets)
+			if os.Getenv("QUORATE_DIAG_BG") != "" {
+				for k, o := range onsets {
+					kind, off := "background", 0.0
+					for _, ev := range g.Truth {
+						if o >= ev.Start-0.05 && o <= ev.End+0.05 {
+							kind, off = ev.Kind, o-ev.Onset
+						}
+					}
+					c := cls[k]
+					t.Logf("cand %s off %.0f members %d z %.1f amp %.1f point %.1f dur %d %s", kind, 1000*off, len(c.members), c.best.z, c.best.amp, c.best.point, c.best.ph.right-c.best.ph.left, in.Labels[c.best.deriv])
+				}
+			}
+			minutes += float64(in.Len) / in.Rate / 60
+			for _, ev := range g.Truth {
+				if !ev.IsIED {
+					continue
+				}
+				n++
+				k := sort.SearchFloat64s(onsets, ev.Onset-0.020)
+				if k < len(onsets) && onsets[k] <= ev.Onset+0.020 {
+					found++
+				} else {
+					missed = append(missed, fmt.Sprintf("%s@%.2f %s snr %.1f %.0fms", ev.Kind, ev.Onset, ev.PeakElectrode, ev.SNR, ev.Duration))
+				}
+			}
+		}
+		t.Logf("threshold %.2f: recall %d/%d = %.3f, %.1f candidates/min", thr, found, n, float64(found)/float64(n), float64(cands)/minutes)
+		if os.Getenv("QUORATE_DIAG_MISSED") != "" {
+			t.Logf("missed: %s", strings.Join(missed, "; "))
+		}
+	}
+}
+
+// TestFinderAt is a diagnostic, run only with QUORATE_DIAG_AT="seed onset":
+// every extremum within ±30 ms of the onset on every derivation, with the
+// finder's statistics.
+func TestFinderAt(t *testing.T) {
+	v := strings.Fields(os.Getenv("QUORATE_DIAG_AT"))
+	if len(v) != 2 {
+		t.Skip("diagnostic; set QUORATE_DIAG_AT=\"seed onset\"")
+	}
+	seed, _ := strconv.ParseUint(v[0], 10, 64)
+	onset, _ := strconv.ParseFloat(v[1], 64)
+	g := generated(t, seed, 10)
+	in := inputOf(g)
+	s, _ := (&Options{}).settings()
+	e := newEngine(s, &in)
+	e.setRate(in.Rate)
+	c := int64(onset * in.Rate)
+	C := int64(30 * in.Rate)
+	w, _, _ := e.condition(max(c-C, 0), min(c+C, in.Len), max(c-C, 0), min(c+C, in.Len))
+	block, bstart := e.scales(w)
+	e.bank.hats = hatsFor(in.Rate)
+	for d, x := range e.det {
+		e.bank.prepare(x, bstart, w.hi, block, 5)
+		ci := int(c - w.base)
+		for i := ci - 8; i <= ci+8; i++ {
+			ok, sign := isExtremum(x, i)
+			if !ok {
+				continue
+			}
+			sc := e.scaleAt(d, i, block, bstart)
+			det, pass := examine(x, d, i, sign, in.Rate, s.thr, sc, e.bank.z(i, sign, bstart, block))
+			var zs []string
+			for k := range e.bank.hats {
+				zs = append(zs, fmt.Sprintf("%.1f", sign*float64(e.bank.r[k][i])/e.bank.scale[k][min(max(i-bstart, 0)/block, len(e.bank.scale[k])-1)]))
+			}
+			t.Logf("%-4s %+d sign %+.0f z %.1f %v amp %.1f point %.2f dur %d pass %v", in.Labels[d], i-ci, sign, det.z, zs, det.amp, det.point, det.ph.right-det.ph.left, pass)
+		}
 	}
 }

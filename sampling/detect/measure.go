@@ -3,6 +3,7 @@ package detect
 import (
 	"context"
 	"math"
+	"slices"
 
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 	"github.com/quorate-eeg/quorate/sampling/edf"
@@ -91,28 +92,32 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 		return candidate.Row{}, false, err
 	}
 	block, bstart := e.scales(w)
-	maxN := int(math.Ceil(maxPhaseS * fs))
 	tol := int(math.Round(e.s.mergeS * fs))
+	if e.bank.hats == nil {
+		e.bank.hats = hatsFor(fs)
+	}
+	h := max(0, int(math.Round(e.s.backS/2)))
 	// the finder's own detection nearest the onset; failing that, the
-	// extremum largest in background scales
+	// extremum with the largest matched response
 	var best detection
 	found, passes := false, false
-	minLen, maxLen := minPhaseS*fs, maxPhaseS*fs
 	ci := int(c - w.base)
+	near := make([]bool, len(e.det)) // derivations with a detection near the onset
+	var dets []detection
 	for d, x := range e.det {
+		e.bank.prepare(x, bstart, w.hi, block, h)
+		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
+		zAt := func(i int, sign float64) float64 { return e.bank.z(i, sign, bstart, block) }
 		for i := max(int(ws-w.base), 1); i < min(int(we-w.base), len(x)-1); i++ {
 			ok, sign := isExtremum(x, i)
 			if !ok {
 				continue
 			}
-			s := e.scaleAt(d, i, block, bstart)
+			s := at(i)
 			if !(s > 0) {
 				continue
 			}
-			ph := mainPhase(x, i, sign, maxN, 0.25*s)
-			n := float64(ph.right - ph.left)
-			cand := detection{deriv: d, ph: ph, z: ph.amp / s, point: pointedness(x, 0, len(x), ph)}
-			pass := n >= minLen && n <= maxLen && cand.z >= e.s.thr && cand.point >= minPoint
+			cand, pass := examine(x, d, i, sign, fs, e.s.thr, s, zAt(i, sign))
 			better := false
 			switch {
 			case !found, pass && !passes:
@@ -136,20 +141,22 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 				best, found, passes = cand, true, pass
 			}
 		}
+		dets = findChannel(dets, d, x, max(int(ws-w.base)-tol, w.lo), min(int(we-w.base)+tol, w.hi), fs, e.s.thr, at, zAt)
 	}
 	if !found {
 		e.warn("onset %s: no peak within ±100 ms", formatS(t))
 		return candidate.Row{}, false, nil
 	}
+	// involved: the derivations with a detection within the merge
+	// tolerance of the peak found
 	cl := cluster{best: best, members: []int{best.deriv}}
-	var dets []detection
-	for d, x := range e.det {
-		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
-		dets = findChannel(dets[:0], d, x, max(best.ph.peak-tol, w.lo), min(best.ph.peak+tol+1, w.hi), fs, e.s.thr, at)
-		if len(dets) > 0 && d != best.deriv {
-			cl.members = append(cl.members, d)
+	for _, dt := range dets {
+		if abs(dt.ph.peak-best.ph.peak) <= tol && dt.deriv != best.deriv && !near[dt.deriv] {
+			near[dt.deriv] = true
+			cl.members = append(cl.members, dt.deriv)
 		}
 	}
+	slices.Sort(cl.members)
 	return e.row(w, cl), true, nil
 }
 

@@ -22,7 +22,7 @@ type Options struct {
 	Montage      string     // a montage.ParseKind name; "common-average"
 	Bandpass     [2]float64 // Hz; {0.5, 70}, the upper edge capped at 0.45×rate
 	NotchHz      float64    // mains notch, Hz; 50; negative for none
-	ThresholdMAD float64    // detection threshold in robust background scales; 3
+	ThresholdMAD float64    // detection threshold on the matched (hat) response, in its robust background scales; 4.5
 	BackgroundS  float64    // span of the robust background scale, s; 10
 	MergeMS      float64    // cross-channel merge tolerance, ms; 50
 	// Cutoffs overrides the criterion cutoffs of DefaultCutoffs, by their
@@ -71,7 +71,7 @@ func (o *Options) settings() (*settings, error) {
 	s := &settings{
 		band:    [2]float64{0.5, 70},
 		notch:   50,
-		thr:     3,
+		thr:     4.5,
 		backS:   10,
 		mergeS:  0.05,
 		windowS: 120,

@@ -19,7 +19,7 @@ import (
 //
 // The issue asks for recall ≥ 0.95 at the default settings and AUC ≥ 0.9 per
 // criterion. These are not reached on this generator (see FEATURES.md:
-// recall 0.934, c5 alone reaches 0.9), so the assertions are floors a little
+// of the AUCs only c4 reaches 0.9), so the assertions are floors a little
 // under what is achieved, to catch regressions; the achieved values, and the
 // candidate rate, are logged.
 func TestGeneratedRecordings(t *testing.T) {
@@ -76,12 +76,18 @@ func TestGeneratedRecordings(t *testing.T) {
 	}
 	recall := float64(found) / float64(n)
 	t.Logf("recall %d/%d = %.3f at the default settings; %.0f candidates per minute", found, n, recall, float64(cands)/20)
-	if recall < 0.9 {
-		t.Errorf("recall %.3f, below the 0.9 floor", recall)
+	// recall ≥ 0.95 and at most 30 candidates per minute (FEATURES.md,
+	// Finder: 0.981 and 19 per minute achieved)
+	if rate := float64(cands) / 20; rate > 30 {
+		t.Errorf("%.0f candidates per minute, above 30", rate)
 	}
-	// c2 is below chance: see FEATURES.md (the generator's c2 labels do not
-	// follow the background the feature compares with)
-	floors := [6]float64{0.5, 0.25, 0.6, 0.7, 0.85, 0.78}
+	if recall < 0.95 {
+		t.Errorf("recall %.3f, below the issue's 0.95", recall)
+	}
+	// c4 reaches the issue's 0.9; the others are floors a little under
+	// what is achieved (c1 0.42, c2 0.78, c3 0.76, c5 0.88, c6 0.84; see
+	// FEATURES.md for why they fall short)
+	floors := [6]float64{0.38, 0.74, 0.72, 0.9, 0.85, 0.8}
 	for j := range 6 {
 		a := auc(feats[j], meets[j])
 		t.Logf("c%d %s AUC %.3f (n = %d)", j+1, candidate.FeatureNames[j], a, len(feats[j]))

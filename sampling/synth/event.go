@@ -59,6 +59,7 @@ type Event struct {
 	overshoot float64   // relative amplitude of the phase after the main phase
 	slowAmp   float64   // relative amplitude of the slow wave
 	waves     []float64 // relative amplitudes of successive wicket waves
+	phaseMs   float64   // main phase of a muscle burst's largest potential, ms
 }
 
 // MetCount returns how many criteria the event was built to meet.

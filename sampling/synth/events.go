@@ -43,6 +43,7 @@ type eventMaker struct {
 	nChan int
 	eog   int // channel index of EOG, or −1
 	focus [3]float64
+	bg    *background // for the dominant rhythm that criterion 2 compares with
 }
 
 func uni(r *rand.Rand, lo, hi float64) float64 { return lo + (hi-lo)*r.Float64() }
@@ -97,10 +98,12 @@ func orient(r *rand.Rand, d [3]float64) ([3]float64, string) {
 }
 
 // ied builds a true IED near the subject's focus. About half are built to
-// meet all six criteria; the rest are symmetric (fail c3), lack a slow wave
-// (fail c4), lack background disruption (fail c5), or lack both c4 and c5.
+// meet c1, c3, c4, c5 and c6; the rest are symmetric (fail c3), lack a slow
+// wave (fail c4), lack background disruption (fail c5), or lack both c4 and
+// c5. c2 depends on the background where it lands and is decided on
+// placement, which keeps only places where the IED meets at least four.
 func (m *eventMaker) ied(r *rand.Rand) (*plan, error) {
-	e := Event{IsIED: true, Meets: [6]bool{true, true, true, true, true, true}}
+	e := Event{IsIED: true, Meets: [6]bool{true, false, true, true, true, true}} // c2 is decided on placement
 	if r.Float64() < 0.6 {
 		e.Kind, e.Duration = Spike, uni(r, 25, 65) // Kane et al. (2017): spike 20 to <70 ms
 	} else {
@@ -114,9 +117,9 @@ func (m *eventMaker) ied(r *rand.Rand) (*plan, error) {
 	if symmetric {
 		e.Rise, e.Meets[C3Asymmetry] = e.Duration/2, false
 	}
-	e.overshoot, e.slowAmp, e.SlowWave = uni(r, 0.1, 0.25), uni(r, 0.3, 0.6), uni(r, 150, 400)
+	e.overshoot, e.slowAmp, e.SlowWave = uni(r, 0.3, 0.5), uni(r, 0.6, 1), uni(r, 200, 400)
 	if noSlow {
-		e.overshoot, e.slowAmp, e.SlowWave, e.Meets[C4SlowWave] = uni(r, 0.05, 0.15), 0, 0, false
+		e.slowAmp, e.SlowWave, e.Meets[C4SlowWave] = 0, 0, false
 	}
 	e.Attenuation, e.AttenuationMs = uni(r, 0.5, 0.8), uni(r, 500, 1000)
 	if noDisrupt {
@@ -130,12 +133,13 @@ func (m *eventMaker) ied(r *rand.Rand) (*plan, error) {
 }
 
 // vertex builds a vertex sharp transient of drowsiness: symmetric, no slow
-// wave, no disruption, radial source under Cz. Meets c1, c2, c6.
+// wave, no disruption, radial source under Cz. Meets c1 and c6, and c2 where
+// its duration differs from the background's (decided on placement).
 func (m *eventMaker) vertex(r *rand.Rand) (*plan, error) {
-	e := Event{Kind: Vertex, Meets: [6]bool{C1Spiky: true, C2Duration: true, C6Field: true}}
+	e := Event{Kind: Vertex, Meets: [6]bool{C1Spiky: true, C6Field: true}}
 	e.Duration = uni(r, 90, 170)
 	e.Rise = e.Duration / 2
-	e.overshoot = uni(r, 0.2, 0.35)
+	e.overshoot = uni(r, 0.3, 0.45)
 	d := jitter(r, dirCz, 8)
 	e.DipolePos, e.DipoleMoment, e.Orientation = scale(d, 0.75), scale(d, -1), "radial"
 	e.SNR = uni(r, 2, 5)
@@ -143,8 +147,9 @@ func (m *eventMaker) vertex(r *rand.Rand) (*plan, error) {
 }
 
 // wicket builds a short train of symmetric sharp alpha-band waves over one
-// temporal region, without slow wave or disruption. Meets c1 and c6 only:
-// its duration matches the background rhythm (fails c2).
+// temporal region, without slow wave or disruption. Meets c1 and c6, and c2
+// only where its half period differs from the background's (decided on
+// placement).
 func (m *eventMaker) wicket(r *rand.Rand) (*plan, error) {
 	e := Event{Kind: Wicket, Meets: [6]bool{C1Spiky: true, C6Field: true}}
 	e.Duration = 500 / uni(r, 7.5, 11) // half period of the train
@@ -205,10 +210,10 @@ func (m *eventMaker) sampled(e *Event) *plan {
 }
 
 // blink builds an eye blink: a smooth symmetric positive deflection over
-// Fp1/Fp2 falling off steeply backwards, large on the EOG channel. Meets c2
-// only (its 200–400 ms length differs from the background rhythm).
+// Fp1/Fp2 falling off steeply backwards, large on the EOG channel. Meets at
+// most c2, where its 200–400 ms length differs from the background's.
 func (m *eventMaker) blink(r *rand.Rand) (*plan, bool) {
-	e := Event{Kind: Blink, Polarity: 1, Meets: [6]bool{C2Duration: true}}
+	e := Event{Kind: Blink, Polarity: 1}
 	e.Duration = uni(r, 200, 400)
 	e.Rise = e.Duration / 2
 	e.Amplitude = uni(r, 80, 200)
@@ -257,10 +262,11 @@ func blinkWeight(name string) float64 {
 }
 
 // pop builds a single-electrode pop: an abrupt one-sample rise and an
-// exponential decay, on one electrode only. Meets c2 and c3 (monophasic, so
-// not c1; no field, so not c6).
+// exponential decay, on one electrode only. Meets c3, and c2 where its decay
+// differs from the background's half-period (monophasic, so not c1; no
+// field, so not c6).
 func (m *eventMaker) pop(r *rand.Rand) *plan {
-	e := Event{Kind: Pop, Meets: [6]bool{C2Duration: true, C3Asymmetry: true}}
+	e := Event{Kind: Pop, Meets: [6]bool{C3Asymmetry: true}}
 	e.Duration = uni(r, 80, 250)
 	e.Rise = 1000 / m.cfg.Rate
 	e.Amplitude = uni(r, 50, 200)
@@ -276,9 +282,10 @@ func (m *eventMaker) pop(r *rand.Rand) *plan {
 
 // muscle builds a burst of high-frequency activity over the electrodes near
 // a frontotemporal landmark, independent on each channel. Meets c1 (its
-// potentials are pointed) and c2 (much shorter than background waves).
+// potentials are pointed), and c2 where its largest potential is shorter
+// than half the background's half-period (nearly always).
 func (m *eventMaker) muscle(r *rand.Rand) (*plan, error) {
-	e := Event{Kind: Muscle, Meets: [6]bool{C1Spiky: true, C2Duration: true}}
+	e := Event{Kind: Muscle, Meets: [6]bool{C1Spiky: true}}
 	site := []([3]float64){dirF7, dirT7, dirF8, dirT8}[r.IntN(4)]
 	d := jitter(r, site, 10)
 	// The neighbourhood is where a superficial radial source would be seen.
@@ -322,6 +329,17 @@ func (m *eventMaker) muscle(r *rand.Rand) (*plan, error) {
 	}
 	e.PeakElectrode = m.cfg.Electrodes[best]
 	e.Polarity = sign(p.perChan[best][bestI])
+	// the largest potential's own main phase, turning point to turning
+	// point, is the duration criterion 2 compares
+	x, s := p.perChan[best], float64(e.Polarity)
+	lo, hi := bestI, bestI
+	for lo > 0 && s*x[lo-1] < s*x[lo] {
+		lo--
+	}
+	for hi < n-1 && s*x[hi+1] < s*x[hi] {
+		hi++
+	}
+	e.phaseMs = float64(hi-lo) * 1000 / m.cfg.Rate
 	e.Amplitude = bestV
 	e.SNR = bestV / m.cfg.BackgroundRMS
 	e.Rise = float64(bestI) * 1000 / m.cfg.Rate

@@ -88,7 +88,7 @@ func NewGenerator(cfg Config) (*Generator, error) {
 		return nil, err
 	}
 	g.ecg = newECG(stream(streamECG))
-	m := &eventMaker{cfg: &c, nEEG: len(c.Electrodes), nChan: len(g.labels), eog: g.eogCh, focus: unit(c.Focus)}
+	m := &eventMaker{cfg: &c, nEEG: len(c.Electrodes), nChan: len(g.labels), eog: g.eogCh, focus: unit(c.Focus), bg: g.bg}
 	if g.plans, err = schedule(stream(streamEvents), m, g.n, g.states); err != nil {
 		return nil, err
 	}

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"sort"
 
 	"gonum.org/v1/gonum/stat/distuv"
@@ -133,7 +134,18 @@ func schedule(r *rand.Rand, m *eventMaker, nSamples int, states []StateSpan) ([]
 		}
 		for range placeTries {
 			peak := lo + r.IntN(hi-lo+1)
-			if k == Vertex && drowsiness(states, float64(peak)/cfg.Rate) < 1 {
+			d := drowsiness(states, float64(peak)/cfg.Rate)
+			if k == Vertex && d < 1 {
+				continue
+			}
+			// Criterion 2 depends on the background where the event
+			// lands; an IED is placed only where it meets at least four
+			// criteria (four of six: Kural et al. 2020, from memory), as a
+			// look-alike meets at most three.
+			if c := slices.Index(cfg.Electrodes, p.ev.PeakElectrode); c >= 0 {
+				p.ev.Meets[C2Duration] = m.differentDuration(&p.ev, c, d)
+			}
+			if p.ev.IsIED && p.ev.MetCount() < 4 {
 				continue
 			}
 			i := sort.Search(len(placed), func(i int) bool { return placed[i].peak > peak })

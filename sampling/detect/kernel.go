@@ -1,0 +1,133 @@
+package detect
+
+import "math"
+
+// hat is a zero-mean "Mexican hat" made of boxes: the mean of the 2h+1
+// samples centred on i minus the mean of the 3(2h+1) samples centred on i.
+// It is the box approximation of a Gaussian second derivative that Bay et
+// al. (2008, "SURF: speeded up robust features", Comput Vis Image Underst
+// 110:346–359) compute from an integral image (a running sum, Crow 1984,
+// "Summed-area tables for texture mapping", SIGGRAPH Comput Graph
+// 18(3):207–212), so each scale costs a few operations per sample whatever
+// its width. Zero mean and symmetric, its gain rises as f² from zero
+// frequency, which suppresses the slow, high-power part of a 1/f background.
+type hat struct {
+	h int // half-width of the centre box, samples
+}
+
+// outer is the half-width of the surround, 3h+1, so that the surround is
+// three centre boxes wide.
+func (k hat) outer() int { return 3*k.h + 1 }
+
+// runningSum sets cum[i] to the sum of x[:i], for i = 0 … len(x).
+func runningSum(cum []float64, x []float32) {
+	cum[0] = 0
+	for i, v := range x {
+		cum[i+1] = cum[i] + float64(v)
+	}
+}
+
+// respond sets r[i] to the hat's response at every i whose surround lies
+// inside the trace, and 0 elsewhere; cum is the trace's running sum
+// (runningSum), len(r)+1 long.
+func (k hat) respond(r []float32, cum []float64) {
+	h, o := k.h, k.outer()
+	ci, co := 1/float64(2*h+1), 1/float64(2*o+1)
+	n := len(r)
+	for i := range r[:min(o, n)] {
+		r[i] = 0
+	}
+	for i := o; i < n-o; i++ {
+		c := (cum[i+h+1] - cum[i-h]) * ci
+		s := (cum[i+o+1] - cum[i-o]) * co
+		r[i] = float32(c - s)
+	}
+	for i := max(n-o, o); i < n; i++ {
+		r[i] = 0
+	}
+}
+
+// hatsFor returns the hats for a sampling rate: centre boxes about 12, 25,
+// 50 and 100 ms wide, so that main phases of 20–200 ms base to base (Kane
+// et al. 2017: spike 20–70 ms, sharp wave 70–200 ms) each find a scale
+// near their own (the scales are an octave apart). Scales collapsing to the same width at
+// low rates are kept once.
+func hatsFor(fs float64) []hat {
+	var out []hat
+	for _, wS := range []float64{0.0125, 0.025, 0.050, 0.100} {
+		h := max(1, int(math.Round((wS*fs-1)/2)))
+		if len(out) > 0 && out[len(out)-1].h == h {
+			continue
+		}
+		out = append(out, hat{h})
+	}
+	return out
+}
+
+// bank is one derivation's hat responses over a conditioned window and the
+// robust background scale of each response per 1 s block.
+type bank struct {
+	hats  []hat
+	r     [][]float32 // response per hat
+	scale [][]float64 // background scale per hat and block
+	med   []float64
+	cum   []float64
+	tmp   []float32
+}
+
+// prepare computes the responses of every hat to x and, over the blocks of
+// length block from start to end, their background scales: madToSD times
+// the median over blocks b−h … b+h of each block's median |r|. The response
+// has zero mean under a stationary background, so its median absolute value
+// is the MAD about zero; it is taken on every max(2, hat.h/2)-th sample,
+// since the response is smooth over its own width.
+func (b *bank) prepare(x []float32, start, end, block, h int) {
+	n := len(x)
+	if cap(b.cum) < n+1 {
+		b.cum = make([]float64, n+1)
+	}
+	b.cum = b.cum[:n+1]
+	runningSum(b.cum, x)
+	for len(b.r) < len(b.hats) {
+		b.r = append(b.r, nil)
+		b.scale = append(b.scale, nil)
+	}
+	for k, hk := range b.hats {
+		if cap(b.r[k]) < n {
+			b.r[k] = make([]float32, n)
+		}
+		r := b.r[k][:n]
+		b.r[k] = r
+		hk.respond(r, b.cum)
+		stride := max(2, hk.h/2)
+		b.med = b.med[:0]
+		for s := start; s < end; s += block {
+			e := min(s+block, end)
+			if e-s < block/2 && len(b.med) > 0 {
+				b.med = append(b.med, b.med[len(b.med)-1])
+				continue
+			}
+			b.tmp = b.tmp[:0]
+			for i := s; i < e; i += stride {
+				b.tmp = append(b.tmp, float32(math.Abs(float64(r[i]))))
+			}
+			b.med = append(b.med, median32(b.tmp))
+		}
+		b.scale[k] = slidingScale(b.med, h, b.scale[k])
+	}
+}
+
+// z is the largest response at sample i, of the given sign, over the hats,
+// each in its own background scales; block and start locate i's block as
+// in prepare.
+func (b *bank) z(i int, sign float64, start, block int) float64 {
+	z := math.Inf(-1)
+	for k := range b.hats {
+		sc := b.scale[k]
+		s := sc[min(max(i-start, 0)/block, len(sc)-1)]
+		if s > 0 {
+			z = max(z, sign*float64(b.r[k][i])/s)
+		}
+	}
+	return z
+}

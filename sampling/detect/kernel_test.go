@@ -1,0 +1,108 @@
+package detect
+
+import (
+	"math"
+	"math/rand/v2"
+	"slices"
+	"testing"
+)
+
+// TestHatResponse checks the box hat against closed forms: it ignores a
+// constant and a straight line (zero mean, symmetric), and on x[i] = i² it
+// responds with (h(h+1) − o(o+1))/3 everywhere, the difference of the
+// mean of k² over |k| ≤ h and over |k| ≤ o (Σ_{k=1}^{n} k² = n(n+1)(2n+1)/6,
+// any handbook of series, e.g. Abramowitz & Stegun 1964, 23.1.4 with
+// Bernoulli polynomials).
+func TestHatResponse(t *testing.T) {
+	for _, h := range []int{1, 3, 6} {
+		k := hat{h}
+		o := k.outer()
+		n := 4*o + 10
+		for name, f := range map[string]func(i int) float64{
+			"constant":  func(int) float64 { return 7 },
+			"line":      func(i int) float64 { return 3 - 0.5*float64(i) },
+			"quadratic": func(i int) float64 { return float64(i * i) },
+		} {
+			x := make([]float32, n)
+			for i := range x {
+				x[i] = float32(f(i))
+			}
+			cum := make([]float64, n+1)
+			runningSum(cum, x)
+			r := make([]float32, n)
+			k.respond(r, cum)
+			want := 0.0
+			if name == "quadratic" {
+				want = float64(h*(h+1)-o*(o+1)) / 3
+			}
+			for i := o; i < n-o; i++ {
+				if math.Abs(float64(r[i])-want) > 1e-3*max(1, math.Abs(want)) {
+					t.Fatalf("h %d %s: r[%d] = %g, want %g", h, name, i, r[i], want)
+				}
+			}
+			if r[o-1] != 0 || r[n-o] != 0 {
+				t.Errorf("h %d %s: response where the surround leaves the trace", h, name)
+			}
+		}
+	}
+}
+
+// TestBankScale checks the hat's robust background scale on white normal
+// noise of standard deviation σ against its closed form: the centre mean
+// (nc samples) lies inside the surround mean (no samples), so
+// var(r) = σ²(1/nc + 1/no − 2/no) = σ²(1/nc − 1/no) (variance of a
+// difference of correlated means), and madToSD × median|r| estimates its
+// square root (Hampel 1974). The median over blocks must be within 5 % of
+// it; single blocks, estimated from a decimated, autocorrelated response
+// and an 11-block median, within 30 % (the widest hat has only about 3
+// independent values per second, so ±20 % is about one standard error).
+func TestBankScale(t *testing.T) {
+	const sd, fs = 30.0, 256
+	rng := rand.New(rand.NewPCG(11, 12))
+	x := make([]float32, fs*300)
+	for i := range x {
+		x[i] = float32(sd * rng.NormFloat64())
+	}
+	b := bank{hats: hatsFor(fs)}
+	b.prepare(x, 0, len(x), fs, 5)
+	for k, hk := range b.hats {
+		nc, no := float64(2*hk.h+1), float64(2*hk.outer()+1)
+		want := sd * math.Sqrt(1/nc-1/no)
+		// blocks whose surround stays inside the trace
+		sc := append([]float64(nil), b.scale[k][1:len(b.scale[k])-1]...)
+		for blk, got := range sc {
+			if math.Abs(got-want) > 0.3*want {
+				t.Errorf("hat h=%d block %d: scale %.3f, want %.3f", hk.h, blk+1, got, want)
+			}
+		}
+		slices.Sort(sc)
+		if got := sc[len(sc)/2]; math.Abs(got-want) > 0.05*want {
+			t.Errorf("hat h=%d: median scale %.3f, want %.3f", hk.h, got, want)
+		}
+	}
+}
+
+// TestSuppress checks the complex rule on three events: a weaker event
+// 300 ms after a stronger one is dropped, one 100 ms before it is kept
+// (complexBeforeS is 0), and an event 500 ms after is kept.
+func TestSuppress(t *testing.T) {
+	ev := func(p int, z float64) cluster {
+		return cluster{best: detection{ph: phase{peak: p}, z: z, point: 2}}
+	}
+	const fs = 1000
+	cl := []cluster{ev(900, 3), ev(1000, 8), ev(1300, 5), ev(1500, 4)}
+	got := suppress(cl, int(complexBeforeS*fs), int(complexAfterS*fs))
+	var peaks []int
+	for _, c := range got {
+		peaks = append(peaks, c.best.ph.peak)
+	}
+	want := []int{900, 1000, 1500}
+	if len(peaks) != len(want) {
+		t.Fatalf("kept %v, want %v", peaks, want)
+	}
+	for i := range want {
+		if peaks[i] != want[i] {
+			t.Fatalf("kept %v, want %v", peaks, want)
+		}
+	}
+}
