@@ -82,3 +82,21 @@ func StateAt(spans []StateSpan, t float64) string {
 }
 
 var inf = func() float64 { var z float64; return 1 / z }()
+
+// recordingStates reads the vigilance states an EDF+ recording's annotations give (none
+// for plain EDF and BDF). Only the annotation signal is read.
+func recordingStates(r *edf.Reader) ([]StateSpan, error) {
+	if !r.Header().Format.IsPlus() {
+		return nil, nil
+	}
+	var anns []edf.Annotation
+	for a, err := range r.AllAnnotations() {
+		if err != nil {
+			return nil, err
+		}
+		if StageOf(a.Text) != "" {
+			anns = append(anns, a)
+		}
+	}
+	return States(anns), nil
+}

@@ -82,6 +82,16 @@ func writeRecording(path string, s Subject, spec RecordingSpec) ([]Event, error)
 		for i := range buf {
 			buf[i] = make([]float32, int(rate))
 		}
+		// Each change of vigilance state is annotated as a scorer would, in the AASM
+		// stage names (Berry et al. 2017): W for awake, N1 for drowsy.
+		var stages []edf.Annotation
+		for _, st := range g.States() {
+			text := "Sleep stage W"
+			if st.State == Drowsy {
+				text = "Sleep stage N1"
+			}
+			stages = append(stages, edf.Annotation{Onset: st.Start, Duration: st.End - st.Start, HasDuration: true, Text: text})
+		}
 		for r := int64(0); r < records; r++ {
 			n, err := g.Read(buf)
 			if err != nil && err != io.EOF {
@@ -90,7 +100,13 @@ func writeRecording(path string, s Subject, spec RecordingSpec) ([]Event, error)
 			for i := range buf {
 				clear(buf[i][n:]) // the last record is padded with zeros
 			}
-			if err := wr.WriteRecord(buf); err != nil {
+			var anns []edf.Annotation
+			for _, a := range stages {
+				if a.Onset >= float64(r) && a.Onset < float64(r+1) {
+					anns = append(anns, a)
+				}
+			}
+			if err := wr.WriteRecord(buf, anns...); err != nil {
 				return err
 			}
 		}

@@ -78,6 +78,19 @@ func TestWriteArchiveReadsBack(t *testing.T) {
 				t.Fatalf("sample %d: %g read back, %g generated", j, got[j], want[3][j])
 			}
 		}
+		// The vigilance states are annotated, one per state span.
+		var stages int
+		for a, err := range r.AllAnnotations() {
+			if err != nil {
+				t.Fatal(err)
+			}
+			if strings.HasPrefix(a.Text, "Sleep stage ") {
+				stages++
+			}
+		}
+		if stages == 0 {
+			t.Errorf("%d stage annotations written", stages)
+		}
 		r.Close()
 		b, err := os.ReadFile(w.TruthPath)
 		if err != nil || !strings.HasPrefix(string(b), strings.Join(TruthHeader, ",")) {
