@@ -180,24 +180,7 @@ func (r *Reader) loadRecord(i int64) error {
 // the SamplesPerRecord samples of signal j. dst has one entry per header
 // signal; a nil entry, and every annotation signal, is skipped.
 func (r *Reader) ReadRecord(i int64, dst [][]float32) error {
-	if err := r.checkDst(len(dst)); err != nil {
-		return err
-	}
-	if err := r.loadRecord(i); err != nil {
-		return err
-	}
-	for j, d := range dst {
-		s := &r.h.Signals[j]
-		if d == nil || s.IsAnnotation() {
-			continue
-		}
-		if len(d) < s.SamplesPerRecord {
-			return fmt.Errorf("edf: dst[%d] holds %d samples, signal %d needs %d", j, len(d), j, s.SamplesPerRecord)
-		}
-		src := r.buf[r.sigOff[j] : r.sigOff[j]+int64(s.SamplesPerRecord*r.width)]
-		r.decode(d, src, s)
-	}
-	return nil
+	return eachSignal(r, i, dst, r.decode)
 }
 
 func (r *Reader) decode(d []float32, src []byte, s *Signal) {
@@ -211,6 +194,14 @@ func (r *Reader) decode(d []float32, src []byte, s *Signal) {
 
 // ReadRecordRaw is ReadRecord without scaling: the stored digital values.
 func (r *Reader) ReadRecordRaw(i int64, dst [][]int32) error {
+	return eachSignal(r, i, dst, func(d []int32, src []byte, s *Signal) {
+		decodeRaw(d[:s.SamplesPerRecord], src, r.width)
+	})
+}
+
+// eachSignal loads record i and hands each wanted ordinary signal's bytes to
+// decode, with its destination.
+func eachSignal[T any](r *Reader, i int64, dst [][]T, decode func(d []T, src []byte, s *Signal)) error {
 	if err := r.checkDst(len(dst)); err != nil {
 		return err
 	}
@@ -225,7 +216,7 @@ func (r *Reader) ReadRecordRaw(i int64, dst [][]int32) error {
 		if len(d) < s.SamplesPerRecord {
 			return fmt.Errorf("edf: dst[%d] holds %d samples, signal %d needs %d", j, len(d), j, s.SamplesPerRecord)
 		}
-		decodeRaw(d[:s.SamplesPerRecord], r.buf[r.sigOff[j]:], r.width)
+		decode(d, r.buf[r.sigOff[j]:r.sigOff[j]+int64(s.SamplesPerRecord*r.width)], s)
 	}
 	return nil
 }
