@@ -21,10 +21,9 @@ type Config struct {
 		Roots []string `yaml:"roots"`
 	} `yaml:"archive"`
 	Signal struct {
-		Montage   string     `yaml:"montage"`
-		Bandpass  [2]float64 `yaml:"bandpass_hz"`
-		NotchHz   float64    `yaml:"notch_hz"`
-		FilterOrd int        `yaml:"filter_order"`
+		Montage  string     `yaml:"montage"`
+		Bandpass [2]float64 `yaml:"bandpass_hz"`
+		NotchHz  float64    `yaml:"notch_hz"`
 	} `yaml:"signal"`
 	Detect struct {
 		ThresholdMAD  float64 `yaml:"threshold_mad"`

@@ -31,16 +31,15 @@ archive:
 
 signal:
   montage: common-average     # referential | common-average | longitudinal-bipolar | transverse-bipolar
-  bandpass_hz: [0.5, 70]      # zero-phase Butterworth band-pass
-  filter_order: 2             # per band edge, applied forward and backward
+  bandpass_hz: [0.5, 70]      # Butterworth band-pass, order 2 per edge, applied forward and backward
   notch_hz: 50                # 50 or 60 (mains frequency of the recording site); 0 for none
 
 detect:
-  threshold_mad: 5            # peak amplitude, in robust background scales (median absolute deviation)
+  threshold_mad: 4.5          # transient response, in robust background scales (median absolute deviation)
   background_window_s: 10     # sliding window for the background scale
   merge_window_ms: 50         # detections this close across channels form one event
 
-# Default cutoff of each criterion's feature; each feature's file beside its code explains it.
+# Default cutoff of each criterion's feature (sampling/detect/FEATURES.md explains each).
 criteria_cutoffs:
   c1_sharpness: 0             # 0 = the documented default of the feature
   c2_duration_log_ratio: 0
