@@ -2,29 +2,95 @@ package detect
 
 import "math"
 
-// spiky measures criterion 1, spiky morphology (Kane et al. 2017: "sharp or
-// spiky morphology (i.e. pointed peak)"):
+// spiky measures criterion 1, a di- or triphasic wave with spiky
+// morphology (Kane et al. 2017: "di- or tri-phasic waves with sharp or spiky
+// morphology (i.e. pointed peak)"):
 //
 //	duration  D = (right − left)/fs, the main phase between its turning points, ms
-//	sharpness P = pointedness of the apex (see pointedness): the curvature at
+//	point     P = pointedness of the apex (see pointedness): the curvature at
 //	          the peak per unit amplitude, relative to that of a sine half-wave
 //	          of the same duration D; 1 for a sine, 4.15 for the cusp of two
 //	          symmetric squared ramps
+//	opposite  r = the opposite-polarity phase after the main phase relative to
+//	          the main phase (see oppositePhase)
+//	spikiness S = sqrt(P · q), q = min(r, 1/r)
 //	phases    the number of consecutive half-waves at least 20 % of A high,
 //	          the main phase included, within 300 ms on either side
 //
 // with A the main-phase amplitude (the lower of the two half-wave heights).
-// Relating the curvature to the duration makes P scale-free: a short wave is
-// not counted as sharp merely for being short (that is criterion 2's
-// business), only a peak more pointed than a rounded wave of its length is.
-func spiky(t *trace, ph phase) (durMS, sharp float64, phases int) {
+// S, the headline, needs both halves of the definition: a pointed apex and a
+// second phase of the other polarity. Pointedness alone ranks a pop's
+// one-sample step, the most pointed apex there is, above every discharge;
+// a monophasic wave has q = 0 whatever its apex. q folds r > 1 back, because
+// an "opposite phase" larger than the main phase means the main phase is a
+// wiggle riding on a larger wave, not the discharge itself. The geometric
+// mean keeps S scale-free, like P and q, and lets neither half dominate.
+// Relating the curvature to the duration makes P scale-free too: a short
+// wave is not counted as sharp merely for being short (that is criterion
+// 2's business), only a peak more pointed than a rounded wave of its length
+// is.
+func spiky(t *trace, ph phase, sc *scratch) (durMS, point, spike float64, phases int) {
 	durMS = float64(ph.right-ph.left) / t.fs * 1000
-	sharp = pointedness(t.x, t.lo, t.hi, ph)
-	if math.IsNaN(sharp) {
-		return durMS, sharp, 1
+	point = pointedness(t.x, t.lo, t.hi, ph)
+	if math.IsNaN(point) {
+		return durMS, point, math.NaN(), 1
 	}
+	spike = spikiness(point, oppositePhase(t, ph, sc))
 	phases = 1 + countPhases(t, ph.left, -1, ph) + countPhases(t, ph.right, +1, ph)
-	return durMS, sharp, phases
+	return durMS, point, spike, phases
+}
+
+// spikiness combines pointedness p and opposite-phase ratio r into
+// sqrt(p · min(r, 1/r)); 0 when either is not positive, NaN when either is.
+func spikiness(p, r float64) float64 {
+	if math.IsNaN(p) || math.IsNaN(r) {
+		return math.NaN()
+	}
+	q := r
+	if r > 1 {
+		q = 1 / r
+	}
+	if !(p > 0) || !(q > 0) {
+		return 0
+	}
+	return math.Sqrt(p * q)
+}
+
+// preBaseS is the stretch before the main phase whose median is the local
+// baseline of oppositePhase, s.
+const preBaseS = 0.3
+
+// oppositePhase returns the largest excursion of the polarity opposite to
+// the peak's within one main-phase duration D after the main phase's right
+// base (the base included), over the height of the peak, both measured from
+// the local baseline b, the median of the preBaseS before the left base:
+//
+//	r = max_{i ∈ [right, right+D]} (−sign·(x[i] − b)) / (sign·(x[p] − b))
+//
+// The baseline is taken before the event on purpose: a pop's or a blink's
+// slow return lifts any median that reaches after the peak (a ±0.5 s median
+// was tried and rejected for that), and a median ignores the event's own
+// samples only if it stays clear of them. Only the phase after the main one
+// is looked for: it is present in both the di- and the triphasic form, and
+// the stretch before the step of a pop holds only background. NaN when the
+// peak is not above the baseline or the trace is too short.
+func oppositePhase(t *trace, ph phase, sc *scratch) float64 {
+	a := ph.left - int(math.Round(preBaseS*t.fs))
+	D := ph.right - ph.left
+	if a < t.lo || ph.right+D >= t.hi {
+		return math.NaN()
+	}
+	sc.med = append(sc.med[:0], t.x[a:ph.left]...)
+	b := median32(sc.med)
+	top := ph.sign * (float64(t.x[ph.peak]) - b)
+	if !(top > 0) {
+		return math.NaN()
+	}
+	opp := 0.0
+	for _, v := range t.x[ph.right : ph.right+D+1] {
+		opp = max(opp, -ph.sign*(float64(v)-b))
+	}
+	return opp / top
 }
 
 // countPhases counts the half-waves beyond the turning point at start, in

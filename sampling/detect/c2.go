@@ -75,6 +75,52 @@ func durationRatio(t *trace, ph phase, sc *scratch) (logRatio, halfMS float64) {
 		return math.NaN(), math.NaN()
 	}
 	halfMS = 500 / fb
-	d := float64(ph.right-ph.left) / t.fs * 1000
+	d := waveDuration(t, ph, sc) / t.fs * 1000
 	return math.Abs(math.Log(d / halfMS)), halfMS
+}
+
+// returnFrac is the share of the peak's height above the local baseline at
+// which waveDuration takes a slowly returning wave to have ended.
+const returnFrac = 0.1
+
+// returnMaxS bounds the search for the return to baseline, s each side.
+const returnMaxS = 1.0
+
+// waveDuration returns the duration, in samples, that criterion 2 compares
+// with the background: the larger of the main phase base to base and its
+// width at returnFrac of the peak's height above the local baseline b (the
+// median of the preBaseS before the left base, as in oppositePhase),
+// searched up to returnMaxS from the peak, linearly interpolated. A main
+// phase ends at its base; where a wave returns slowly, as the decay of a
+// pop, the walk to the base stops at the first background ripple on
+// its tail, or at the 200 ms limit of the finder, long before the wave has
+// returned; the tenth-height width then measures it. For a wave that
+// starts and ends at the baseline the base-to-base duration is the larger
+// and is kept. Falls back to base to base when the baseline is undefined.
+func waveDuration(t *trace, ph phase, sc *scratch) float64 {
+	d := float64(ph.right - ph.left)
+	a := ph.left - int(math.Round(preBaseS*t.fs))
+	if a < t.lo {
+		return d
+	}
+	sc.med = append(sc.med[:0], t.x[a:ph.left]...)
+	b := median32(sc.med)
+	top := ph.sign * (float64(t.x[ph.peak]) - b)
+	if !(top > 0) {
+		return d
+	}
+	level := returnFrac * top
+	n := int(math.Round(returnMaxS * t.fs))
+	cross := func(dir int) float64 {
+		prev := top
+		for i, k := ph.peak+dir, 1; i >= t.lo && i < t.hi && k <= n; i, k = i+dir, k+1 {
+			v := ph.sign * (float64(t.x[i]) - b)
+			if v <= level {
+				return float64(k-1) + (prev-level)/(prev-v)
+			}
+			prev = v
+		}
+		return float64(n)
+	}
+	return max(d, cross(-1)+cross(+1))
 }

@@ -47,7 +47,7 @@ type engine struct {
 	med, mad, scale [][]float64
 	blk             []float32
 	dets            []detection
-	vmap            []float64
+	vmap, emap      []float64
 	bank            bank
 }
 
@@ -367,18 +367,27 @@ func (e *engine) row(w window, c cluster) candidate.Row {
 	car := e.carTraces(w)
 	// polarity in the common average, at the peak electrode
 	pol := ph.sign
+	ref := -1 // the peak electrode's common-average derivation
 	if w.m.car != w.m.det {
 		for i, p := range w.m.carPlus {
 			if labels[p] == elec {
 				pol = math.Copysign(1, float64(car[i][ph.peak]))
+				ref = i
 			}
 		}
+	} else {
+		ref = c.best.deriv
 	}
 	e.vmap = e.vmap[:0]
 	for _, i := range w.m.fitIdx {
 		e.vmap = append(e.vmap, float64(car[i][ph.peak]))
 	}
-	f := cerebralField(w.m.fitter, e.vmap)
+	if ref >= 0 {
+		e.emap = eventMap(car, w.m.fitIdx, car[ref], ph.left, ph.right, e.emap)
+	} else {
+		e.emap = append(e.emap[:0], e.vmap...)
+	}
+	f := cerebralField(w.m.fitter, e.vmap, e.emap)
 	var chans []string
 	for _, d := range c.members {
 		chans = append(chans, labels[w.m.detPlus[d]])

@@ -51,11 +51,13 @@ type scratch struct {
 	psd  []float64
 	co   []complex128
 	cum  []float64
+	med  []float32
 }
 
 // measures are the feature values of one event before they go into a Row.
 type measures struct {
-	durMS, sharp      float64
+	durMS, sharp      float64 // sharp is the headline: spikiness
+	point             float64
 	phases            int
 	logRatio, bgMS    float64
 	asym, riseMS, fMS float64
@@ -65,7 +67,7 @@ type measures struct {
 
 func measure(t *trace, ph phase, sc *scratch) measures {
 	var m measures
-	m.durMS, m.sharp, m.phases = spiky(t, ph)
+	m.durMS, m.point, m.sharp, m.phases = spiky(t, ph, sc)
 	m.logRatio, m.bgMS = durationRatio(t, ph, sc)
 	m.asym, m.riseMS, m.fMS = asymmetry(t, ph)
 	m.slow = slowWave(t, ph, sc)

@@ -42,14 +42,14 @@ type Options struct {
 // documented in FEATURES.md. The values are common practice or, where no
 // convention exists, a documented first guess that the tuner replaces.
 var DefaultCutoffs = map[string]float64{
-	"c1_duration_ms":        200, // Kane et al. (2017): spike < 70 ms, sharp wave 70–200 ms
-	"c1_sharpness":          2,   // pointedness: above a cos² bump (1.87), below a triangle (2.49); first guess
-	"c2_duration_log_ratio": 0.7, // |ln| ≥ ln 2: half or twice the background half-period
-	"c3_asymmetry":          1.3, // common practice
-	"c4_slow_wave_ratio":    1.5, // background standard deviations
-	"c5_disruption":         0.3, // −ln of the post-event activity ratio
-	"c6_dipole_gof":         0.8, // common practice for equivalent dipole fits
-	"c6_field_extent":       2,   // channels at ≥ 50 % of the peak
+	"c1_duration_ms":        200,  // Kane et al. (2017): spike < 70 ms, sharp wave 70–200 ms
+	"c1_sharpness":          0.63, // spikiness √(P·q) at pointedness 2 and an opposite phase of 20 % (c1_phases' floor); first guess
+	"c2_duration_log_ratio": 0.7,  // |ln| ≥ ln 2: half or twice the background half-period
+	"c3_asymmetry":          1.3,  // common practice
+	"c4_slow_wave_ratio":    1.5,  // background standard deviations
+	"c5_disruption":         0.3,  // −ln of the post-event activity ratio
+	"c6_dipole_gof":         0.8,  // common practice for equivalent dipole fits
+	"c6_field_extent":       2,    // channels at ≥ 50 % of the peak
 }
 
 // settings are Options with defaults filled in and the montage parsed.
