@@ -17,6 +17,7 @@ import (
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/export/report"
+	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"github.com/quorate-eeg/quorate/panel/consensus"
 	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/panel/packet"
@@ -165,7 +166,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 		if err := os.MkdirAll(inbox, 0o755); err != nil {
 			return err
 		}
-		if err := os.WriteFile(p, b, 0o644); err != nil {
+		if err := atomicfile.WriteBytes(p, b, 0o644); err != nil {
 			return err
 		}
 		paths = append(paths, p)
@@ -212,7 +213,7 @@ func prepareDemoDir(dir string) error {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
-	return os.WriteFile(filepath.Join(dir, demoMarker), []byte("made by quorate demo; a later demo may replace this folder\n"), 0o644)
+	return atomicfile.WriteBytes(filepath.Join(dir, demoMarker), []byte("made by quorate demo; a later demo may replace this folder\n"), 0o644)
 }
 
 // demoTruth matches each candidate to the generator's event within 50 ms of its peak.
