@@ -269,10 +269,15 @@ func demoSummary(w io.Writer, s *study.Study, recs []archive.Recording, cands []
 	}
 	fmt.Fprintf(w, "Operating   %s\n            chosen by %s against the %s\n", op.Rule, op.Policy, op.ReferenceStandard)
 	d := op.InSample.DesignWeighted
-	fmt.Fprintf(w, "            reported (design-weighted): sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f)\n",
+	fmt.Fprintf(w, "            in sample (design-weighted): sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f): optimistic, the rule was chosen on these events\n",
 		d.Sensitivity.Value, d.Sensitivity.Lo, d.Sensitivity.Hi, d.Specificity.Value, d.Specificity.Lo, d.Specificity.Hi)
+	if op.CrossValidated != nil {
+		cv := op.CrossValidated.DesignWeighted
+		fmt.Fprintf(w, "            cross-validated by subject:  sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f): what to expect on new recordings\n",
+			cv.Sensitivity.Value, cv.Sensitivity.Lo, cv.Sensitivity.Hi, cv.Specificity.Value, cv.Specificity.Lo, cv.Specificity.Hi)
+	}
 	ts := TruthCheck(op, cands, truth)
-	fmt.Fprintf(w, "            against the generator's truth on all %d candidates: sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f)\n",
+	fmt.Fprintf(w, "            the generator's truth on all %d candidates:  sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f)\n",
 		ts.N, ts.Sens, ts.SensLo, ts.SensHi, ts.Spec, ts.SpecLo, ts.SpecHi)
 	fmt.Fprintf(w, "\nReport      %s\nExport      %s\nStudy       %s\n\n%s\n", s.Path(study.TuningDir, "report.html"),
 		filepath.Join(filepath.Dir(s.Dir), "export"), s.Dir, caution)
