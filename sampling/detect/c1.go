@@ -56,16 +56,23 @@ func spikiness(p, r float64) float64 {
 	return math.Sqrt(p * q)
 }
 
+// oppMaxS caps the stretch after the main phase searched for the opposite
+// phase, s: the second phase of a di- or triphasic wave adjoins the first,
+// while a window as long as a 200–400 ms blink's own duration finds a
+// background wave of the other polarity by chance (common practice).
+const oppMaxS = 0.1
+
 // preBaseS is the stretch before the main phase whose median is the local
 // baseline of oppositePhase, s.
 const preBaseS = 0.3
 
 // oppositePhase returns the largest excursion of the polarity opposite to
-// the peak's within one main-phase duration D after the main phase's right
-// base (the base included), over the height of the peak, both measured from
-// the local baseline b, the median of the preBaseS before the left base:
+// the peak's within one main-phase duration D, at most oppMaxS, after the
+// main phase's right base (the base included), over the height of the peak,
+// both measured from the local baseline b, the median of the preBaseS
+// before the left base:
 //
-//	r = max_{i ∈ [right, right+D]} (−sign·(x[i] − b)) / (sign·(x[p] − b))
+//	r = max_{i ∈ [right, right+min(D, 100 ms)]} (−sign·(x[i] − b)) / (sign·(x[p] − b))
 //
 // The baseline is taken before the event on purpose: a pop's or a blink's
 // slow return lifts any median that reaches after the peak (a ±0.5 s median
@@ -76,7 +83,7 @@ const preBaseS = 0.3
 // peak is not above the baseline or the trace is too short.
 func oppositePhase(t *trace, ph phase, sc *scratch) float64 {
 	a := ph.left - int(math.Round(preBaseS*t.fs))
-	D := ph.right - ph.left
+	D := min(ph.right-ph.left, int(math.Round(oppMaxS*t.fs)))
 	if a < t.lo || ph.right+D >= t.hi {
 		return math.NaN()
 	}
