@@ -13,7 +13,7 @@ import "math"
 //	          symmetric squared ramps
 //	opposite  r = the opposite-polarity phase after the main phase relative to
 //	          the main phase (see oppositePhase)
-//	spikiness S = sqrt(P · q), q = min(r, 1/r)
+//	spikiness S = sqrt(P · q), q = max(0, 1 − |1 − r|)
 //	phases    the number of consecutive half-waves at least 20 % of A high,
 //	          the main phase included, within 300 ms on either side
 //
@@ -21,9 +21,13 @@ import "math"
 // S, the headline, needs both halves of the definition: a pointed apex and a
 // second phase of the other polarity. Pointedness alone ranks a pop's
 // one-sample step, the most pointed apex there is, above every discharge;
-// a monophasic wave has q = 0 whatever its apex. q folds r > 1 back, because
-// an "opposite phase" larger than the main phase means the main phase is a
-// wiggle riding on a larger wave, not the discharge itself. The geometric
+// a monophasic wave has q = 0 whatever its apex. q falls again for r > 1,
+// to 0 at r = 2, because an "opposite phase" larger than the main phase
+// means the main phase is a wiggle riding on a larger wave, not the
+// discharge itself: the zero-phase filter's ringing just before a pop's
+// step is the commonest case. (The fold 1/r used before let a ringing lobe
+// with a pop four times its size after it score √(P/4), and a step's P is
+// large.) The geometric
 // mean keeps S scale-free, like P and q, and lets neither half dominate.
 // Relating the curvature to the duration makes P scale-free too: a short
 // wave is not counted as sharp merely for being short (that is criterion
@@ -41,15 +45,13 @@ func spiky(t *trace, ph phase, sc *scratch) (durMS, point, spike float64, phases
 }
 
 // spikiness combines pointedness p and opposite-phase ratio r into
-// sqrt(p · min(r, 1/r)); 0 when either is not positive, NaN when either is.
+// sqrt(p · q), q = max(0, 1 − |1 − r|): q = r up to r = 1 and falls back to
+// 0 at r = 2. 0 when either is not positive, NaN when either is.
 func spikiness(p, r float64) float64 {
 	if math.IsNaN(p) || math.IsNaN(r) {
 		return math.NaN()
 	}
-	q := r
-	if r > 1 {
-		q = 1 / r
-	}
+	q := 1 - math.Abs(1-r)
 	if !(p > 0) || !(q > 0) {
 		return 0
 	}

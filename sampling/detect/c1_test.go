@@ -86,9 +86,12 @@ func TestC2Sinusoid(t *testing.T) {
 		if math.Abs(got-half) > 1e-9 {
 			t.Errorf("%g Hz: half-period %g ms, want %g", f, got, half)
 		}
-		// the duration compared is waveDuration's (TestWaveDuration)
-		d := waveDuration(tr, ph, &scratch{})
-		if want := math.Abs(math.Log(d / fs * 1000 / half)); math.Abs(lr-want) > 1e-9 {
+		// a sinusoid's main phase is followed by a full opposite phase
+		// (r = 1 ≥ phaseFloor), so the duration compared is base to base
+		if r := oppositePhase(tr, ph, &scratch{}); r < phaseFloor {
+			t.Fatalf("%g Hz: opposite phase %g", f, r)
+		}
+		if want := math.Abs(math.Log(float64(n) / fs * 1000 / half)); math.Abs(lr-want) > 1e-9 {
 			t.Errorf("%g Hz: log ratio %g, want %g", f, lr, want)
 		}
 	}

@@ -9,11 +9,12 @@ import (
 // piecewise-linear waves of known geometry on a flat baseline: a triangle
 // of height a followed by an opposite triangle of height o·a has r = o
 // exactly, a monophasic triangle r = 0 and spikiness 0, and spikiness is
-// √(P·min(r, 1/r)) with P the triangle's closed-form pointedness (see
-// TestC1Duration). Closed forms (construction).
+// √(P·max(0, 1 − |1 − r|)) with P the triangle's closed-form pointedness
+// (see TestC1Duration): r = 1.6 gives √(0.4 P), r = 2.5 gives 0. Closed
+// forms (construction).
 func TestOppositePhase(t *testing.T) {
 	const fs = 1000.0
-	for _, o := range []float64{0, 0.2, 0.45, 1.6} {
+	for _, o := range []float64{0, 0.2, 0.45, 1.6, 2.5} {
 		x := triangle(2000, 1000, 20, 40, -100)
 		// opposite phase: a positive triangle of height 100·o over the
 		// 30 ms after the fall; the fall continues into it, so the main
@@ -38,10 +39,7 @@ func TestOppositePhase(t *testing.T) {
 			t.Errorf("o=%g: ratio %g", o, r)
 		}
 		_, point, s, _ := spiky(tr, ph, &scratch{})
-		want := math.Sqrt(point * min(o, 1/o))
-		if o == 0 {
-			want = 0
-		}
+		want := math.Sqrt(point * max(0, 1-math.Abs(1-o)))
 		if math.Abs(s-want) > 1e-6 {
 			t.Errorf("o=%g: spikiness %g, want %g", o, s, want)
 		}
@@ -65,8 +63,14 @@ func TestWaveDuration(t *testing.T) {
 		// left: the step from 0 to 100 in one sample crosses 10 at 0.9
 		// samples before the peak
 		want := tau*math.Log(10) + 0.9
-		if got := waveDuration(tr, ph, &scratch{}); math.Abs(got-want) > 0.01*tau {
+		got := waveDuration(tr, ph, &scratch{})
+		if math.Abs(got-want) > 0.01*tau {
 			t.Errorf("τ=%g: %g samples, want %g", tau, got, want)
+		}
+		// monophasic (no opposite phase), so criterion 2 compares this
+		// width, not the walk to the base, with the background
+		if lr, half := durationRatio(tr, ph, &scratch{}); math.Abs(lr-math.Abs(math.Log(got/fs*1000/half))) > 1e-9 {
+			t.Errorf("τ=%g: log ratio %g against %g ms, want the width's", tau, lr, half)
 		}
 	}
 	x := triangle(2000, 1000, 20, 40, -100)
@@ -103,6 +107,33 @@ func TestEventMap(t *testing.T) {
 	for c, g := range append(gains, 0) {
 		if math.Abs(m[c]-g) > 1e-5 {
 			t.Errorf("channel %d: %g, want %g", c, m[c], g)
+		}
+	}
+}
+
+// TestAsymmetryOvershoot checks criterion 3 on a symmetric triangle (R = F
+// = 30 samples, height 100) whose fall runs on into an opposite triangle of
+// height 45: the flanks are compared at one level, 0.7 of the lower flank's
+// height below the peak, where both are 21 samples wide, so the ratio is 1
+// (construction); widths at half of each flank's own height would read
+// 15 against 30 × 72.5/100 = 21.75, a ratio of 1.45. A triangle with F/R =
+// 2 and the same overshoot reads 2.
+func TestAsymmetryOvershoot(t *testing.T) {
+	for _, c := range []struct {
+		r, f int
+		want float64
+	}{{30, 30, 1}, {20, 40, 2}} {
+		x := triangle(2000, 1000, c.r, c.f, -100)
+		for i := 1000 + c.f; i <= 1000+c.f+30; i++ {
+			x[i] = float32(45 * (1 - math.Abs(float64(i-1000-c.f-15))/15))
+		}
+		ph := mainPhase(x, 1000, -1, 200, 1)
+		if ph.right != 1000+c.f+15 {
+			t.Fatalf("R=%d F=%d: right base %d, want the overshoot's apex %d", c.r, c.f, ph.right, 1000+c.f+15)
+		}
+		got, _, _ := asymmetry(&trace{x: x, lo: 0, hi: len(x), fs: 1000}, ph)
+		if math.Abs(got-c.want) > 1e-4 {
+			t.Errorf("R=%d F=%d: asymmetry %g, want %g", c.r, c.f, got, c.want)
 		}
 	}
 }

@@ -20,9 +20,14 @@ const (
 //
 // with D the main-phase duration and T = 1/f_bg the period of the dominant
 // background rhythm, so that a background wave of the same period (whose
-// half-wave lasts T/2) scores 0. f_bg is the frequency in 1–30 Hz maximising
-// f·P(f), P the Welch (1967) power spectrum of the background ranges (see
-// trace.background): Hann-windowed, mean-removed 2 s segments with 50 %
+// half-wave lasts T/2) scores 0. D is the main phase base to base when an
+// opposite phase of at least phaseFloor follows it (oppositePhase), and
+// otherwise the larger of that and the width to its return (waveDuration):
+// a slow return is the duration only of a monophasic wave, while after a
+// spike it runs into the after-going slow wave. f_bg is the frequency in
+// 1–30 Hz maximising f·P(f), P the Welch (1967) power spectrum of the
+// background ranges within specSpanS (16 s) of the peak (see
+// trace.backgroundSpan): Hann-windowed, mean-removed 2 s segments with 50 %
 // overlap, periodograms averaged. Weighting by f reads the spectrum per
 // octave, so the steep 1/f slope of ongoing EEG does not make the lowest
 // frequency win by default and a background rhythm such as alpha is found
@@ -30,6 +35,23 @@ const (
 // column holds the half-period the duration is compared with). NaN when no
 // full segment fits.
 func durationRatio(t *trace, ph phase, sc *scratch) (logRatio, halfMS float64) {
+	fb := dominantHz(t, ph.peak, specSpanS, sc)
+	if math.IsNaN(fb) {
+		return math.NaN(), math.NaN()
+	}
+	halfMS = 500 / fb
+	d := float64(ph.right - ph.left)
+	if !(oppositePhase(t, ph, sc) >= phaseFloor) {
+		d = waveDuration(t, ph, sc)
+	}
+	d = d / t.fs * 1000
+	return math.Abs(math.Log(d / halfMS)), halfMS
+}
+
+// dominantHz returns the frequency in 1–30 Hz maximising f·P(f), P the
+// Welch (1967) spectrum of the background ranges within span s of p (see
+// trace.backgroundSpan), or NaN when no full segment fits.
+func dominantHz(t *trace, p int, span float64, sc *scratch) float64 {
 	n := int(math.Round(welchS * t.fs))
 	if sc.fftN != n {
 		sc.fftN, sc.fft = n, fourier.NewFFT(n)
@@ -43,7 +65,7 @@ func durationRatio(t *trace, ph phase, sc *scratch) (logRatio, halfMS float64) {
 	}
 	clear(sc.psd)
 	segs := 0
-	for _, r := range t.background(ph.peak) {
+	for _, r := range t.backgroundSpan(p, span) {
 		for s := r[0]; s+n <= r[1]; s += n / 2 {
 			var mean float64
 			for _, v := range t.x[s : s+n] {
@@ -61,7 +83,7 @@ func durationRatio(t *trace, ph phase, sc *scratch) (logRatio, halfMS float64) {
 		}
 	}
 	if segs == 0 {
-		return math.NaN(), math.NaN()
+		return math.NaN()
 	}
 	df := t.fs / float64(n)
 	best, fb := -1.0, math.NaN()
@@ -71,13 +93,13 @@ func durationRatio(t *trace, ph phase, sc *scratch) (logRatio, halfMS float64) {
 			best, fb = v, f
 		}
 	}
-	if math.IsNaN(fb) {
-		return math.NaN(), math.NaN()
-	}
-	halfMS = 500 / fb
-	d := waveDuration(t, ph, sc) / t.fs * 1000
-	return math.Abs(math.Log(d / halfMS)), halfMS
+	return fb
 }
+
+// phaseFloor is the opposite phase, as a share of the peak's height, from
+// which durationRatio takes a wave to be di- or triphasic and its main
+// phase to end at its base; the floor c1_phases counts (20 %).
+const phaseFloor = 0.2
 
 // returnFrac is the share of the peak's height above the local baseline at
 // which waveDuration takes a slowly returning wave to have ended.

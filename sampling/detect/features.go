@@ -17,21 +17,29 @@ type trace struct {
 // it and [p+2, p+5] after it. The gap after the peak leaves out the
 // after-going slow wave and any post-event attenuation, which may last more
 // than a second, so that c2, c4 and c5 compare the event with the activity
-// it interrupts and not with itself.
+// it interrupts and not with itself. c2's spectrum reaches further, to
+// specSpanS (16 s) each side: its dominant rhythm is an argmax over
+// periodogram bins, and from 7.5 s of data it wandered between near-equal
+// peaks (FEATURES.md, c2).
 const (
 	bgSpanS     = 5.0
 	bgPreGapS   = 0.5
 	bgPostGapS  = 2.0
-	contextNeed = bgSpanS + 0.5 // seconds of conditioned context each side
+	specSpanS   = 16.0                          // reach of c2's background spectrum, s each side
+	contextNeed = max(bgSpanS, specSpanS) + 0.5 // seconds of conditioned context each side
 )
 
 // background returns the background ranges around p as half-open sample
 // intervals inside the usable part of t.
-func (t *trace) background(p int) [][2]int {
+func (t *trace) background(p int) [][2]int { return t.backgroundSpan(p, bgSpanS) }
+
+// backgroundSpan is background reaching span s on each side instead of
+// bgSpanS.
+func (t *trace) backgroundSpan(p int, span float64) [][2]int {
 	s := func(sec float64) int { return int(math.Round(sec * t.fs)) }
 	r := [][2]int{
-		{max(p-s(bgSpanS), t.lo), min(p-s(bgPreGapS), t.hi)},
-		{max(p+s(bgPostGapS), t.lo), min(p+s(bgSpanS), t.hi)},
+		{max(p-s(span), t.lo), min(p-s(bgPreGapS), t.hi)},
+		{max(p+s(bgPostGapS), t.lo), min(p+s(span), t.hi)},
 	}
 	out := r[:0]
 	for _, v := range r {

@@ -113,7 +113,9 @@ func (m *eventMaker) ied(r *rand.Rand) (*plan, error) {
 	symmetric := u < 0.12
 	noSlow := (u >= 0.12 && u < 0.27) || (u >= 0.42 && u < 0.47)
 	noDisrupt := u >= 0.27 && u < 0.47
-	e.Rise = e.Duration * uni(r, 0.28, 0.42)
+	// F/R = 1.63–2.57: clearly asymmetric; R up to 0.42 of D (F/R 1.38)
+	// lay within the measurement's spread of the 1.3 cutoff (GENERATOR.md)
+	e.Rise = e.Duration * uni(r, 0.28, 0.38)
 	if symmetric {
 		e.Rise, e.Meets[C3Asymmetry] = e.Duration/2, false
 	}

@@ -89,6 +89,11 @@ func TestIEDMorphology(t *testing.T) {
 			if rise >= fall {
 				t.Errorf("%s %s rise %d samples not faster than fall %d", e.ID, e.Kind, rise, fall)
 			}
+			// clearly asymmetric: F/R ≥ 1.6, a margin over the 1.3
+			// cutoff (GENERATOR.md)
+			if fr := (e.Duration - e.Rise) / e.Rise; e.IsIED && fr < 1.6 {
+				t.Errorf("%s %s built asymmetric with F/R %.2f, under 1.6", e.ID, e.Kind, fr)
+			}
 		} else {
 			nSym++
 			if abs(rise-fall) > 1 {
