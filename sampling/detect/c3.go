@@ -2,41 +2,48 @@ package detect
 
 import "math"
 
-// asymLevel is the share of the lower flank's height below the peak at
+// asymLevels are the shares of the lower flank's height below the peak at
 // which asymmetry compares the two flanks' widths.
-const asymLevel = 0.7
+var asymLevels = [...]float64{0.5, 0.6, 0.7, 0.8}
 
 // asymmetry measures criterion 3, asymmetric waveform (Kane et al. 2017:
 // "a sharply rising ascending phase and a more slowly decaying descending
 // phase, or vice versa"):
 //
-//	c3 = max(w_rise, w_fall) / min(w_rise, w_fall) ≥ 1
+//	c3 = exp |(1/4) Σ_l ln(w_fall(l) / w_rise(l))| ≥ 1,  l ∈ {0.5, 0.6, 0.7, 0.8}
 //
-// with w_rise and w_fall the widths of the two flanks at one level, L =
-// x[p] − 0.7·min(h_rise, h_fall), h the height of each flank (peak to its
-// base): the time from the peak to where each flank crosses L, linearly
-// interpolated between samples. For a triangle, or the squared ramps
-// ((t+R)/R)², ((F−t)/F)² of sampling/synth, with equal bases, it equals F/R
-// at any level. One level for both flanks, set by the lower one, keeps a
-// symmetric wave whose fall runs on into an overshoot at 1: half of each
-// flank's own height (the measure used before) put the falling flank's
-// level lower by half the overshoot and read a symmetric IED with a 40 %
-// overshoot as 1.5. The upper part of a flank is where the transient
-// dominates the background, and 0.7 rather than 0.5 averages over more
-// samples of a short flank. Either direction counts, so the measure is ≥ 1
-// by construction. Also returns the two base-to-base half-wave durations
-// (ms). NaN when a flank never reaches L.
+// the geometric mean of the flank width ratio over four levels, folded so
+// that either direction counts. w_rise(l) and w_fall(l) are the widths of
+// the two flanks at one level, L = x[p] − l·min(h_rise, h_fall), h the
+// height of each flank (peak to its base): the time from the peak to where
+// each flank crosses L, linearly interpolated between samples. For a
+// triangle, or the squared ramps ((t+R)/R)², ((F−t)/F)² of sampling/synth,
+// with equal bases, every level's ratio, and so c3, equals F/R. One level
+// set by the lower flank, for both flanks, keeps a symmetric wave whose
+// fall runs on into an overshoot at 1: half of each flank's own height (the
+// measure used before) put the falling flank's level lower by half the
+// overshoot and read a symmetric IED with a 40 % overshoot as 1.5. The
+// upper part of a flank is where the transient dominates the background; a
+// spike's upper flank spans one to four samples at 256 Hz, and averaging
+// the log ratio over four levels averages the background's and the
+// sampling grid's error over more crossings than one level does. Also
+// returns the two base-to-base half-wave durations (ms). NaN when a flank
+// never reaches a level.
 func asymmetry(t *trace, ph phase) (ratio, riseMS, fallMS float64) {
 	riseMS = float64(ph.peak-ph.left) / t.fs * 1000
 	fallMS = float64(ph.right-ph.peak) / t.fs * 1000
 	top := ph.sign * float64(t.x[ph.peak])
 	h := min(top-ph.sign*float64(t.x[ph.left]), top-ph.sign*float64(t.x[ph.right]))
-	level := top - asymLevel*h
-	r, f := flankWidth(t, ph, ph.left, -1, level), flankWidth(t, ph, ph.right, +1, level)
-	if !(r > 0) || !(f > 0) {
-		return math.NaN(), riseMS, fallMS
+	var sum float64
+	for _, l := range asymLevels {
+		level := top - l*h
+		r, f := flankWidth(t, ph, ph.left, -1, level), flankWidth(t, ph, ph.right, +1, level)
+		if !(r > 0) || !(f > 0) {
+			return math.NaN(), riseMS, fallMS
+		}
+		sum += math.Log(f / r)
 	}
-	return max(r, f) / min(r, f), riseMS, fallMS
+	return math.Exp(math.Abs(sum / float64(len(asymLevels)))), riseMS, fallMS
 }
 
 // flankWidth returns the time, in samples, from the peak to where the flank
