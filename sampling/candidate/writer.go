@@ -50,7 +50,7 @@ func NewWriter(path string) (*Writer, error) {
 		return nil, err
 	}
 	pw := parquet.NewGenericWriter[Row](tmp, parquet.Compression(&zstd.Codec{}),
-		parquet.PageBufferSize(1<<20), parquet.MaxRowsPerRowGroup(rowGroupRows))
+		parquet.PageBufferSize(64<<10), parquet.MaxRowsPerRowGroup(rowGroupRows))
 	return &Writer{path: path, tmp: tmp, pw: pw}, nil
 }
 
