@@ -1,6 +1,7 @@
 package detect
 
 import (
+	"math"
 	"regexp"
 	"sort"
 	"strings"
@@ -56,7 +57,7 @@ func States(anns []edf.Annotation) []StateSpan {
 	var spans []StateSpan
 	for _, a := range anns {
 		if s := StageOf(a.Text); s != "" {
-			end := inf
+			end := math.Inf(1)
 			if a.HasDuration && a.Duration > 0 {
 				end = a.Onset + a.Duration
 			}
@@ -80,8 +81,6 @@ func StateAt(spans []StateSpan, t float64) string {
 	}
 	return StateUnknown
 }
-
-var inf = func() float64 { var z float64; return 1 / z }()
 
 // recordingStates reads the vigilance states an EDF+ recording's annotations give (none
 // for plain EDF and BDF). Only the annotation signal is read.
