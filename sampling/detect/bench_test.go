@@ -115,6 +115,13 @@ func TestFinderTradeoff(t *testing.T) {
 		t.Skip("diagnostic; set QUORATE_DIAG=1")
 	}
 	seeds := []uint64{1, 2, 3, 4}
+	if v := os.Getenv("QUORATE_DIAG_SEEDS"); v != "" {
+		seeds = nil
+		for _, f := range strings.Fields(v) {
+			x, _ := strconv.ParseUint(f, 10, 64)
+			seeds = append(seeds, x)
+		}
+	}
 	thrs := []float64{3, 3.5, 4, 4.5, 5, 5.5, 6}
 	if v := os.Getenv("QUORATE_DIAG_THR"); v != "" {
 		thrs = nil

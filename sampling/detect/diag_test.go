@@ -40,7 +40,7 @@ func TestFeatureDump(t *testing.T) {
 	var feats [6][]float64
 	var meets [6][]bool
 	var extra [][]float64
-	var xmeets [][6]bool
+	var xmeets, xunclear [][6]bool
 	for _, seed := range seeds {
 		g := generated(t, seed, 10)
 		in := inputOf(g)
@@ -73,19 +73,24 @@ func TestFeatureDump(t *testing.T) {
 			r := rows[m[i]]
 			ft := r.Features()
 			for j := range 6 {
-				if !math.IsNaN(ft[j]) {
+				if !math.IsNaN(ft[j]) && !ev.Unclear[j] {
 					feats[j] = append(feats[j], ft[j])
 					meets[j] = append(meets[j], ev.Meets[j])
 				}
 			}
 			extra = append(extra, ex[m[i]])
 			xmeets = append(xmeets, ev.Meets)
+			xunclear = append(xunclear, ev.Unclear)
 			mt := ""
-			for _, b := range ev.Meets {
+			for j, b := range ev.Meets {
 				mt += map[bool]string{true: "1", false: "0"}[b]
+				if ev.Unclear[j] {
+					mt = mt[:len(mt)-1] + "?"
+				}
 			}
 			fmt.Fprintf(f, "%d\t%s\t%s\t%.1f\t%.1f\t%.1f\t%.2f\t%s\t%s\t%.1f\t%.2f\t%d\t%.3f\t%.0f\t%.2f\t%.2f\t%.2f\t%.3f\t%.2f\t%.2f\t%.2f\t%d", seed, ev.Kind, mt, ev.Duration, ev.Rise, ev.SNR, ev.Onset, ev.PeakElectrode, r.PeakChannel,
 				r.C1DurationMS, r.C1Sharpness, r.C1Phases, r.C2DurationLogRatio, r.C2BackgroundMS, r.C3Asymmetry, r.C4SlowWaveRatio, r.C5Disruption, r.C6DipoleGOF, r.C6DipoleX, r.C6DipoleY, r.C6DipoleZ, r.C6FieldExtent)
+			fmt.Fprintf(f, "\t%.1f\t%.1f", ev.C2DurationMs, ev.BackgroundHalfMs)
 			for _, v := range ex[m[i]] {
 				fmt.Fprintf(f, "\t%.4g", v)
 			}
@@ -102,7 +107,7 @@ func TestFeatureDump(t *testing.T) {
 				var x []float64
 				var y []bool
 				for i := range extra {
-					if v := extra[i][k]; !math.IsNaN(v) {
+					if v := extra[i][k]; !math.IsNaN(v) && !xunclear[i][j] {
 						x, y = append(x, v), append(y, xmeets[i][j])
 					}
 				}

@@ -130,7 +130,7 @@ func (e *engine) montagesFor(bad []bool) *montages {
 			pos = append(pos, p)
 		}
 	}
-	if f, err := headmodel.NewFitter(pos, headmodel.DefaultHead(), headmodel.FitOptions{}); err == nil {
+	if f, err := headmodel.NewFitter(pos, headmodel.DefaultHead(), headmodel.FitOptions{MaxEccentricity: fitEccentricity}); err == nil {
 		m.fitter = f
 	} else {
 		e.warn("dipole fit unavailable (c6 not measured): %v", err)

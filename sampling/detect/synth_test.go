@@ -18,10 +18,16 @@ import (
 // from events built to fail it (AUC, Hanley & McNeil 1982).
 //
 // The issue asks for recall ≥ 0.95 at the default settings and AUC ≥ 0.9 per
-// criterion. c1, c4, c5 and c6 reach 0.9 and are asserted at it; c2 and c3
-// do not (see FEATURES.md for why), so their assertions are floors a little
-// under what is achieved, to catch regressions; the achieved values, and the
-// candidate rate, are logged.
+// criterion. Recall and c1, c4, c5 and c6 reach it and are asserted at it;
+// c2 and c3 do not (see FEATURES.md for why), so their assertions are
+// floors a little under what is achieved, to catch regressions; the
+// achieved values, and the candidate rate, are logged.
+// testSeeds are the generated recordings the acceptance figures are read
+// on. The features were designed on seeds 3–6 (TestFeatureDump's default),
+// so these are held out from that work; six recordings rather than two,
+// because on two the AUCs moved by ±0.03 with the draw (FEATURES.md).
+var testSeeds = []uint64{1, 2, 7, 8, 9, 10}
+
 func TestGeneratedRecordings(t *testing.T) {
 	if testing.Short() {
 		t.Skip("generates and scans 20 minutes of EEG")
@@ -29,7 +35,7 @@ func TestGeneratedRecordings(t *testing.T) {
 	dir := t.TempDir()
 	var recs []archive.Recording
 	var truth [][]synth.Event
-	for seed := uint64(1); seed <= 2; seed++ {
+	for _, seed := range testSeeds {
 		g := generated(t, seed, 10)
 		in := inputOf(g)
 		id := fmt.Sprintf("rec-%d", seed)
@@ -42,7 +48,7 @@ func TestGeneratedRecordings(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if res.Processed != 2 || res.Failed != 0 {
+	if res.Processed != len(recs) || res.Failed != 0 {
 		t.Fatalf("processed %d failed %d: %v", res.Processed, res.Failed, res.Warnings)
 	}
 	var feats [6][]float64
@@ -67,7 +73,7 @@ func TestGeneratedRecordings(t *testing.T) {
 			}
 			f := rows[m[i]].Features()
 			for j := range 6 {
-				if !math.IsNaN(f[j]) {
+				if !math.IsNaN(f[j]) && !ev.Unclear[j] {
 					feats[j] = append(feats[j], f[j])
 					meets[j] = append(meets[j], ev.Meets[j])
 				}
@@ -75,19 +81,24 @@ func TestGeneratedRecordings(t *testing.T) {
 		}
 	}
 	recall := float64(found) / float64(n)
-	t.Logf("recall %d/%d = %.3f at the default settings; %.0f candidates per minute", found, n, recall, float64(cands)/20)
+	minutes := float64(10 * len(testSeeds))
+	t.Logf("recall %d/%d = %.3f at the default settings; %.0f candidates per minute", found, n, recall, float64(cands)/minutes)
 	// recall ≥ 0.95 and at most 30 candidates per minute (FEATURES.md,
-	// Finder: 0.981 and 19 per minute achieved)
-	if rate := float64(cands) / 20; rate > 30 {
+	// Finder: 0.969 and 21 per minute achieved on these seeds)
+	if rate := float64(cands) / minutes; rate > 30 {
 		t.Errorf("%.0f candidates per minute, above 30", rate)
 	}
 	if recall < 0.95 {
 		t.Errorf("recall %.3f, below the issue's 0.95", recall)
 	}
-	// c1, c4, c5 and c6 reach the issue's 0.9; c2 and c3 are floors a
-	// little under what is achieved (0.820 and 0.840; see FEATURES.md for
-	// why they fall short)
-	floors := [6]float64{0.9, 0.81, 0.83, 0.9, 0.9, 0.9}
+	// c1, c4, c5 and c6 reach the issue's 0.9 on these seeds (0.908,
+	// 0.958, 0.950, 0.906); c2 and c3 do not (0.864, 0.836; see
+	// FEATURES.md for why), so theirs are floors a little under what is
+	// achieved, to catch regressions. Events whose label for a criterion
+	// is Unclear (built neither to meet nor to fail it) do not enter its
+	// AUC: the issue asks for the separation of events built to meet it
+	// from events built to fail it.
+	floors := [6]float64{0.9, 0.85, 0.82, 0.9, 0.9, 0.9}
 	for j := range 6 {
 		a := auc(feats[j], meets[j])
 		t.Logf("c%d %s AUC %.3f (n = %d)", j+1, candidate.FeatureNames[j], a, len(feats[j]))
@@ -97,7 +108,7 @@ func TestGeneratedRecordings(t *testing.T) {
 	}
 	// resume: a second run finds both outputs and redoes nothing
 	res, err = Run(context.Background(), Options{Recordings: recs, Roots: []string{dir}, OutDir: out})
-	if err != nil || res.Skipped != 2 || res.Processed != 0 {
+	if err != nil || res.Skipped != len(recs) || res.Processed != 0 {
 		t.Errorf("resume: %+v, %v", res, err)
 	}
 	all, err := candidate.ReadDir(out)

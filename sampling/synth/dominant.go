@@ -40,9 +40,20 @@ func arPower(a []float64, gain, f, fs float64) float64 {
 // stands out (Kane et al. 2017 compare a transient's duration with that of
 // "the ongoing background activity").
 func (b *background) dominantHz(c int, d, fs float64) float64 {
+	f, v := b.perOctave(c, d, fs)
+	best := 0
+	for i := range v {
+		if v[i] > v[best] {
+			best = i
+		}
+	}
+	return f[best]
+}
+
+// perOctave returns the search grid and f·P_c(f) on it (see dominantHz).
+func (b *background) perOctave(c int, d, fs float64) (freq, v []float64) {
 	ag := (1 - 0.75*d) * math.Sqrt(1+envDepth*envDepth)
 	tg := 0.25 + 0.75*d
-	best, fb := -1.0, domLowHz
 	for f := domLowHz; f <= domHighHz+1e-9; f += domStepHz {
 		pink := arPower(b.src[0].a, b.src[0].gain, f, fs)
 		var p float64
@@ -57,11 +68,9 @@ func (b *background) dominantHz(c int, d, fs float64) float64 {
 			}
 		}
 		p += b.localG * b.localG * pink
-		if v := f * p; v > best {
-			best, fb = v, f
-		}
+		freq, v = append(freq, f), append(v, f*p)
 	}
-	return fb
+	return freq, v
 }
 
 // c2Factor is how far, as a ratio, a transient's main phase must be from the
@@ -84,10 +93,44 @@ func mainPhaseMs(e *Event, rate float64) float64 {
 	return e.Duration
 }
 
+// c2Margin is the clear margin of a criterion 2 label, in natural-log
+// units of D/(T/2) on either side of ln c2Factor, and c2Rival the share of
+// the dominant rhythm's power per octave at which another frequency that
+// would reverse the label makes the label unclear. A duration is read off
+// a few samples of a noisy wave and the background's period off seconds of
+// it (measured durations scatter by a median of 0.25 in log against the
+// built ones; sampling/detect/FEATURES.md, c2), so an event within 0.2 of
+// the boundary, or over a background with two near-equal rhythms on either
+// side of it, was not built to meet or to fail criterion 2: it is labelled
+// by the nearer side and marked Unclear.
+const (
+	c2Margin = 0.2
+	c2Rival  = 0.6
+)
+
 // differentDuration decides criterion 2 for an event peaking at EEG channel
-// c at drowsiness d: |ln(D / (T/2))| ≥ ln 2, D the main-phase length and T
-// the period of the dominant background rhythm there (dominantHz).
-func (m *eventMaker) differentDuration(e *Event, c int, d float64) bool {
-	half := 500 / m.bg.dominantHz(c, d, m.cfg.Rate)
-	return math.Abs(math.Log(mainPhaseMs(e, m.cfg.Rate)/half)) >= math.Log(c2Factor)
+// c at drowsiness d: met ⇔ |ln(D / (T/2))| ≥ ln 2, D the main-phase length
+// and T the period of the dominant background rhythm there (dominantHz).
+// unclear reports a label within c2Margin of the boundary, or one that a
+// rival rhythm (c2Rival) would reverse.
+func (m *eventMaker) differentDuration(e *Event, c int, d float64) (met, unclear bool) {
+	D := mainPhaseMs(e, m.cfg.Rate)
+	freq, v := m.bg.perOctave(c, d, m.cfg.Rate)
+	best := 0
+	for i := range v {
+		if v[i] > v[best] {
+			best = i
+		}
+	}
+	dist := func(f float64) float64 { return math.Abs(math.Log(D/(500/f))) - math.Log(c2Factor) }
+	x := dist(freq[best])
+	e.C2DurationMs, e.BackgroundHalfMs = D, 500/freq[best]
+	met = x >= 0
+	unclear = math.Abs(x) < c2Margin
+	for i := range v {
+		if v[i] >= c2Rival*v[best] && (dist(freq[i]) >= 0) != met {
+			unclear = true
+		}
+	}
+	return met, unclear
 }

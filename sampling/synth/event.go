@@ -35,7 +35,17 @@ type Event struct {
 	PeakElectrode string
 	Polarity      int
 	Meets         [6]bool // which IFCN criteria the event was built to meet
-	Amplitude     float64 // |peak| at PeakElectrode, µV
+	// Unclear marks the criteria whose label the construction does not
+	// settle: Meets holds the generator's best call, but the event was
+	// built neither to meet nor to fail them with a margin (GENERATOR.md,
+	// "Unclear labels"). A feature's separation is judged on the others.
+	Unclear [6]bool
+	// C2DurationMs and BackgroundHalfMs are what criterion 2 compared: the
+	// event's main-phase length and the half-period of the dominant
+	// background rhythm at its peak electrode and state, ms.
+	C2DurationMs     float64
+	BackgroundHalfMs float64
+	Amplitude        float64 // |peak| at PeakElectrode, µV
 	// Duration is the main-phase length base to base in ms for sharp
 	// transients (spike, sharp wave, vertex, wicket); the burst length for
 	// muscle and blink; the decay time constant for a pop.

@@ -282,12 +282,22 @@ func (m *eventMaker) pop(r *rand.Rand) *plan {
 	return p
 }
 
+// muscleUnclear are the criteria a muscle burst is not built to meet or to
+// fail. Its potentials are band-passed noise: the label "pointed" (c1) and
+// the potential's duration (c2) describe its raw 4–8 ms potentials, which
+// the EEG's 70 Hz low-pass smooths and the finder's 20 ms minimum main
+// phase cannot anchor on, so a candidate on a burst is one of its random
+// slower wiggles; its asymmetry (c3) is whatever the noise gives.
+var muscleUnclear = [6]bool{C1Spiky: true, C2Duration: true, C3Asymmetry: true}
+
 // muscle builds a burst of high-frequency activity over the electrodes near
 // a frontotemporal landmark, independent on each channel. Meets c1 (its
 // potentials are pointed), and c2 where its largest potential is shorter
 // than half the background's half-period (nearly always).
 func (m *eventMaker) muscle(r *rand.Rand) (*plan, error) {
-	e := Event{Kind: Muscle, Meets: [6]bool{C1Spiky: true}}
+	// Its potentials are random: the field (c6), the absence of a slow wave
+	// (c4) and of disruption (c5) are built, their shape is not.
+	e := Event{Kind: Muscle, Meets: [6]bool{C1Spiky: true}, Unclear: muscleUnclear}
 	site := []([3]float64){dirF7, dirT7, dirF8, dirT8}[r.IntN(4)]
 	d := jitter(r, site, 10)
 	// The neighbourhood is where a superficial radial source would be seen.

@@ -381,3 +381,45 @@ func TestConfigErrors(t *testing.T) {
 		t.Errorf("bad chunk: %v", err)
 	}
 }
+
+// TestC2Labels checks each event's criterion 2 label against the rule it
+// is built by, recomputed from the truth columns: met ⇔ |ln(D/(T/2))| ≥
+// ln 2 (half or twice: common practice), and the label unclear within 0.2
+// of that boundary; muscle bursts leave criteria 1–3 unclear (their
+// potentials are random). Both clear sides and the unclear band must occur,
+// so the rule cannot pass by marking everything one way.
+func TestC2Labels(t *testing.T) {
+	cfg := Config{Seed: 2, Duration: 300, IEDRate: 40, LookalikeRate: 40, Forward: standInForward}
+	g, err := NewGenerator(cfg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var met, failed, unclear int
+	for _, e := range g.Truth() {
+		x := math.Abs(math.Log(e.C2DurationMs/e.BackgroundHalfMs)) - math.Log(2)
+		if !(e.C2DurationMs > 0 && e.BackgroundHalfMs > 0) {
+			t.Fatalf("%s: c2 compared %g ms with %g ms", e.ID, e.C2DurationMs, e.BackgroundHalfMs)
+		}
+		if e.Meets[C2Duration] != (x >= 0) {
+			t.Errorf("%s %s: D %g, T/2 %g, label %v", e.ID, e.Kind, e.C2DurationMs, e.BackgroundHalfMs, e.Meets[C2Duration])
+		}
+		if (math.Abs(x) < 0.2 || e.Kind == Muscle) && !e.Unclear[C2Duration] {
+			t.Errorf("%s %s: %.3f from the boundary but not unclear", e.ID, e.Kind, x)
+		}
+		switch {
+		case e.Unclear[C2Duration]:
+			unclear++
+		case e.Meets[C2Duration]:
+			met++
+		default:
+			failed++
+		}
+		if e.Unclear[C1Spiky] != (e.Kind == Muscle) || e.Unclear[C3Asymmetry] != (e.Kind == Muscle) {
+			t.Errorf("%s %s: c1, c3 unclear %v, %v", e.ID, e.Kind, e.Unclear[C1Spiky], e.Unclear[C3Asymmetry])
+		}
+	}
+	if met == 0 || failed == 0 || unclear == 0 {
+		t.Errorf("c2 clear met %d, clear failed %d, unclear %d: want all three", met, failed, unclear)
+	}
+	t.Logf("c2 clear met %d, clear failed %d, unclear %d", met, failed, unclear)
+}

@@ -6,6 +6,7 @@ import (
 	"math"
 	"sort"
 	"strconv"
+	"strings"
 )
 
 // TruthHeader is the header row written by WriteTruthCSV.
@@ -14,10 +15,13 @@ var TruthHeader = []string{
 	"c1", "c2", "c3", "c4", "c5", "c6", "amplitude_uv", "duration_ms", "rise_ms",
 	"slow_wave_ms", "attenuation", "attenuation_ms", "snr",
 	"dipole_x", "dipole_y", "dipole_z", "moment_x", "moment_y", "moment_z", "orientation",
+	"c2_duration_ms", "background_half_period_ms", "unclear",
 }
 
 // WriteTruthCSV writes the truth table as RFC 4180 CSV with TruthHeader.
 // Times are in seconds, exact (shortest round-trip form); booleans are 0/1.
+// unclear lists the criteria whose label is not settled by construction
+// (Event.Unclear), space-separated ("c2 c3"), empty when none.
 func WriteTruthCSV(w io.Writer, evs []Event) error {
 	cw := csv.NewWriter(w)
 	if err := cw.Write(TruthHeader); err != nil {
@@ -43,13 +47,24 @@ func WriteTruthCSV(w io.Writer, evs []Event) error {
 				row = append(row, f(x, 6))
 			}
 		}
-		row = append(row, e.Orientation)
+		row = append(row, e.Orientation, f(e.C2DurationMs, 3), f(e.BackgroundHalfMs, 3), unclearList(e.Unclear))
 		if err := cw.Write(row); err != nil {
 			return err
 		}
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+// unclearList names the set criteria of u, "c1".."c6", space-separated.
+func unclearList(u [6]bool) string {
+	var out []string
+	for j, v := range u {
+		if v {
+			out = append(out, "c"+strconv.Itoa(j+1))
+		}
+	}
+	return strings.Join(out, " ")
 }
 
 // Nearest returns the truth event whose peak lies closest to onset, within tol seconds.
