@@ -46,7 +46,7 @@ var DefaultCutoffs = map[string]float64{
 	"c1_sharpness":          0.63, // spikiness √(P·q) at pointedness 2 and an opposite phase of 20 % (c1_phases' floor); first guess
 	"c2_duration_log_ratio": 0.7,  // |ln| ≥ ln 2: half or twice the background half-period
 	"c3_asymmetry":          1.3,  // common practice
-	"c4_slow_wave_ratio":    1.5,  // background standard deviations
+	"c4_slow_wave_ratio":    1.0,  // background standard deviations; FEATURES.md (c4)
 	"c5_disruption":         0.3,  // −ln of the post-event activity ratio
 	"c6_dipole_gof":         0.8,  // common practice for equivalent dipole fits
 	"c6_field_extent":       2,    // channels at ≥ 50 % of the peak
