@@ -193,24 +193,27 @@ func (b *background) eogNoise() float64 {
 	return 15 * b.local[b.nEEG].next(b.rng.NormFloat64())
 }
 
+// stateGain2 returns the mean-square state scaling of source k at
+// drowsiness d, as step applies it: 1 for the 1/f sources, (1−0.75d)²
+// times the envelope's mean square 1+envDepth² for alpha, (0.25+0.75d)²
+// for theta.
+func (b *background) stateGain2(k int, d float64) float64 {
+	switch {
+	case k < b.nPink:
+		return 1
+	case k < b.nPink+b.nAlpha:
+		return (1 - 0.75*d) * (1 - 0.75*d) * (1 + envDepth*envDepth)
+	}
+	return (0.25 + 0.75*d) * (0.25 + 0.75*d)
+}
+
 // rmsAt returns the background's root mean square at EEG channel c and
-// drowsiness d, from the mixing gains of its unit-variance sources and
-// their state scaling (as in step): 1/f sources 1, alpha (1−0.75d)² times
-// the envelope's mean square 1+envDepth², theta (0.25+0.75d)², plus the
-// channel's own 1/f noise.
+// drowsiness d, from the mixing gains of its unit-variance sources, their
+// state scaling (stateGain2) and the channel's own 1/f noise.
 func (b *background) rmsAt(c int, d float64) float64 {
-	ag2 := (1 - 0.75*d) * (1 - 0.75*d) * (1 + envDepth*envDepth)
-	tg2 := (0.25 + 0.75*d) * (0.25 + 0.75*d)
 	v := b.localG * b.localG
 	for k, g := range b.mix[c] {
-		switch {
-		case k < b.nPink:
-			v += g * g
-		case k < b.nPink+b.nAlpha:
-			v += g * g * ag2
-		default:
-			v += g * g * tg2
-		}
+		v += g * g * b.stateGain2(k, d)
 	}
 	return math.Sqrt(v)
 }

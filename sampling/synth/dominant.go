@@ -52,20 +52,15 @@ func (b *background) dominantHz(c int, d, fs float64) float64 {
 
 // perOctave returns the search grid and f·P_c(f) on it (see dominantHz).
 func (b *background) perOctave(c int, d, fs float64) (freq, v []float64) {
-	ag := (1 - 0.75*d) * math.Sqrt(1+envDepth*envDepth)
-	tg := 0.25 + 0.75*d
 	for f := domLowHz; f <= domHighHz+1e-9; f += domStepHz {
 		pink := arPower(b.src[0].a, b.src[0].gain, f, fs)
 		var p float64
 		for k, g := range b.mix[c] {
-			switch {
-			case k < b.nPink:
-				p += g * g * pink
-			case k < b.nPink+b.nAlpha:
-				p += g * g * ag * ag * arPower(b.src[k].a, b.src[k].gain, f, fs)
-			default:
-				p += g * g * tg * tg * arPower(b.src[k].a, b.src[k].gain, f, fs)
+			s := pink
+			if k >= b.nPink {
+				s = arPower(b.src[k].a, b.src[k].gain, f, fs)
 			}
+			p += g * g * b.stateGain2(k, d) * s
 		}
 		p += b.localG * b.localG * pink
 		freq, v = append(freq, f), append(v, f*p)
