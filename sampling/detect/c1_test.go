@@ -69,13 +69,13 @@ func TestC1Duration(t *testing.T) {
 // TestC2Sinusoid checks the dominant background rhythm on a pure sinusoid:
 // for f Hz the compared half-period is 500/f ms exactly when f sits on a
 // Welch bin (0.5 Hz steps, closed form), and the log ratio is taken against
-// it.
+// it. The main phase is the half-wave around a crest.
 func TestC2Sinusoid(t *testing.T) {
 	const fs = 256.0
 	for _, f := range []float64{2, 6, 10.5, 21} {
 		x := make([]float32, 20*256)
 		for i := range x {
-			x[i] = float32(20 * math.Sin(2*math.Pi*f*float64(i)/fs))
+			x[i] = float32(20 * math.Cos(2*math.Pi*f*float64(i)/fs))
 		}
 		half := 500 / f
 		p := 10 * 256

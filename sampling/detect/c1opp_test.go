@@ -112,12 +112,13 @@ func TestEventMap(t *testing.T) {
 }
 
 // TestAsymmetryOvershoot checks criterion 3 on a symmetric triangle (R = F
-// = 30 samples, height 100) whose fall runs on into an opposite triangle of
-// height 45: the flanks are compared at one level, 0.7 of the lower flank's
-// height below the peak, where both are 21 samples wide, so the ratio is 1
-// (construction); widths at half of each flank's own height would read
-// 15 against 30 × 72.5/100 = 21.75, a ratio of 1.45. A triangle with F/R =
-// 2 and the same overshoot reads 2.
+// = 30 samples, height 100 on a zero baseline) whose fall runs on into an
+// opposite triangle of height 45: the sides are compared where they fall to
+// shares of the peak's height above the baseline (50–20), which both reach
+// before the overshoot, 0.5–0.8 × 30 samples from the peak, so the ratio is
+// 1 (construction); widths at half of each flank's own height, the rule of
+// an earlier round, read 15 against 30 × 72.5/100 = 21.75, a ratio of
+// 1.45. A triangle with F/R = 2 and the same overshoot reads 2.
 func TestAsymmetryOvershoot(t *testing.T) {
 	for _, c := range []struct {
 		r, f int

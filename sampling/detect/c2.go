@@ -24,28 +24,61 @@ const (
 // opposite phase of at least phaseFloor follows it (oppositePhase), and
 // otherwise the larger of that and the width to its return (waveDuration):
 // a slow return is the duration only of a monophasic wave, while after a
-// spike it runs into the after-going slow wave. f_bg is the frequency in
-// 1–30 Hz maximising f·P(f), P the Welch (1967) power spectrum of the
-// background ranges within specSpanS (16 s) of the peak (see
-// trace.backgroundSpan): Hann-windowed, mean-removed 2 s segments with 50 %
-// overlap, periodograms averaged. Weighting by f reads the spectrum per
-// octave, so the steep 1/f slope of ongoing EEG does not make the lowest
-// frequency win by default and a background rhythm such as alpha is found
-// where present. It also returns T/2 in ms (the c2_background_period_ms
-// column holds the half-period the duration is compared with). NaN when no
-// full segment fits.
+// spike it runs into the after-going slow wave. When the phase after the
+// main one is the larger, by more than a turning point's hysteresis (r > 1
+// + turnTol, so that the near-equal phases of a rhythm keep theirs), the
+// main phase is a wiggle on the flank of a larger wave, as c1 reads it
+// (spikiness), most often the zero-phase low-pass's ringing lobe just
+// before a pop's step; D is then that larger wave's (largerWave). f_bg is the frequency in 1–30 Hz maximising f·P(f),
+// P the Welch (1967) power spectrum of the background ranges within
+// specSpanS (16 s) of the peak (see trace.backgroundSpan) and within the
+// event's vigilance state when the recording's annotations give it
+// (trace.sameState; the whole span when that leaves no full segment):
+// Hann-windowed, mean-removed 2 s segments with 50 % overlap, periodograms
+// averaged. Weighting by f reads the spectrum per octave, so the steep 1/f
+// slope of ongoing EEG does not make the lowest frequency win by default
+// and a background rhythm such as alpha is found where present. Keeping to
+// one state compares the event with the background it interrupts:
+// drowsiness replaces the posterior alpha rhythm by slower activity
+// (Berry et al. 2017, stage N1), and a spectrum reaching across a change of
+// state averages two backgrounds. It also returns T/2 in ms (the
+// c2_background_period_ms column holds the half-period the duration is
+// compared with). NaN when no full segment fits.
 func durationRatio(t *trace, ph phase, sc *scratch) (logRatio, halfMS float64) {
-	fb := dominantHz(t, ph.peak, specSpanS, sc)
+	fb := dominantHz(t.sameState(), ph.peak, specSpanS, sc)
+	if math.IsNaN(fb) {
+		fb = dominantHz(t, ph.peak, specSpanS, sc)
+	}
 	if math.IsNaN(fb) {
 		return math.NaN(), math.NaN()
 	}
 	halfMS = 500 / fb
+	r := oppositePhase(t, ph, sc)
+	if r > 1+turnTol {
+		ph = largerWave(t, ph)
+		r = oppositePhase(t, ph, sc)
+	}
 	d := float64(ph.right - ph.left)
-	if !(oppositePhase(t, ph, sc) >= phaseFloor) {
+	if !(r >= phaseFloor) {
 		d = waveDuration(t, ph, sc)
 	}
 	d = d / t.fs * 1000
 	return math.Abs(math.Log(d / halfMS)), halfMS
+}
+
+// largerWave returns the main phase of the opposite-polarity wave whose
+// extremum oppositePhase found after ph: the largest excursion of the other
+// polarity within one main-phase duration, at most oppMaxS, after ph's
+// right base, walked to its bases as the finder walks a detection's.
+func largerWave(t *trace, ph phase) phase {
+	D := min(ph.right-ph.left, int(math.Round(oppMaxS*t.fs)))
+	q := ph.right
+	for i := ph.right; i <= ph.right+D && i < t.hi; i++ {
+		if -ph.sign*float64(t.x[i]) > -ph.sign*float64(t.x[q]) {
+			q = i
+		}
+	}
+	return mainPhase(t.x[:t.hi], q, -ph.sign, int(math.Ceil(maxPhaseS*t.fs)), 0)
 }
 
 // dominantHz returns the frequency in 1–30 Hz maximising f·P(f), P the

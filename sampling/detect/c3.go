@@ -2,8 +2,9 @@ package detect
 
 import "math"
 
-// asymLevels are the shares of the lower flank's height below the peak at
-// which asymmetry compares the two flanks' widths.
+// asymLevels are the shares of the peak's height above the local baseline,
+// counted down from the peak, at which asymmetry compares the widths of the
+// two sides.
 var asymLevels = [...]float64{0.5, 0.6, 0.7, 0.8}
 
 // asymmetry measures criterion 3, asymmetric waveform (Kane et al. 2017:
@@ -13,51 +14,63 @@ var asymLevels = [...]float64{0.5, 0.6, 0.7, 0.8}
 //	c3 = exp |(1/4) Σ_l ln(w_fall(l) / w_rise(l))| ≥ 1,  l ∈ {0.5, 0.6, 0.7, 0.8}
 //
 // the geometric mean of the flank width ratio over four levels, folded so
-// that either direction counts. w_rise(l) and w_fall(l) are the widths of
-// the two flanks at one level, L = x[p] − l·min(h_rise, h_fall), h the
-// height of each flank (peak to its base): the time from the peak to where
-// each flank crosses L, linearly interpolated between samples. For a
-// triangle, or the squared ramps ((t+R)/R)², ((F−t)/F)² of sampling/synth,
-// with equal bases, every level's ratio, and so c3, equals F/R. One level
-// set by the lower flank, for both flanks, keeps a symmetric wave whose
-// fall runs on into an overshoot at 1: half of each flank's own height (the
-// measure used before) put the falling flank's level lower by half the
-// overshoot and read a symmetric IED with a 40 % overshoot as 1.5. The
-// upper part of a flank is where the transient dominates the background; a
-// spike's upper flank spans one to four samples at 256 Hz, and averaging
-// the log ratio over four levels averages the background's and the
-// sampling grid's error over more crossings than one level does. Also
-// returns the two base-to-base half-wave durations (ms). NaN when a flank
-// never reaches a level.
+// that either direction counts. w_rise(l) and w_fall(l) are the times from
+// the peak to where each side of it first falls to L = b + (1 − l)·(x[p] −
+// b), in the peak's polarity, linearly interpolated between samples and
+// searched up to returnMaxS (1 s) away, that bound taken when a side never
+// gets there (the decay of a pop); b is the local baseline, the median of
+// the preBaseS before the main phase's left base (as oppositePhase and
+// waveDuration). For a triangle, or the squared ramps ((t+R)/R)²,
+// ((F−t)/F)² of sampling/synth, rising from and falling to the baseline,
+// every level's ratio, and so c3, equals F/R; an overshoot past the
+// baseline after the fall does not change it (TestAsymmetryOvershoot). The
+// upper part of a wave is where it dominates the background; a spike's
+// upper flank spans one to four samples at 256 Hz, and averaging the log
+// ratio over four levels averages the background's and the sampling grid's
+// error over more crossings than one level does. The levels are shares of
+// the height above the baseline rather than of each flank's height to its
+// base: where the walk to a base stops on a background wave, a flank's
+// height is partly that wave's, the baseline is not. Also returns the two
+// base-to-base half-wave durations (ms). NaN when the baseline is not
+// defined (too near the trace's start) or the peak is not above it.
 func asymmetry(t *trace, ph phase) (ratio, riseMS, fallMS float64) {
 	riseMS = float64(ph.peak-ph.left) / t.fs * 1000
 	fallMS = float64(ph.right-ph.peak) / t.fs * 1000
-	top := ph.sign * float64(t.x[ph.peak])
-	h := min(top-ph.sign*float64(t.x[ph.left]), top-ph.sign*float64(t.x[ph.right]))
+	a := ph.left - int(math.Round(preBaseS*t.fs))
+	if a < t.lo {
+		return math.NaN(), riseMS, fallMS
+	}
+	med := make([]float32, ph.left-a)
+	copy(med, t.x[a:ph.left])
+	b := median32(med)
+	top := ph.sign * (float64(t.x[ph.peak]) - b)
+	if !(top > 0) {
+		return math.NaN(), riseMS, fallMS
+	}
+	n := int(math.Round(returnMaxS * t.fs))
 	var sum float64
 	for _, l := range asymLevels {
-		level := top - l*h
-		r, f := flankWidth(t, ph, ph.left, -1, level), flankWidth(t, ph, ph.right, +1, level)
-		if !(r > 0) || !(f > 0) {
-			return math.NaN(), riseMS, fallMS
-		}
+		level := (1 - l) * top
+		r, f := levelWidth(t, ph, b, -1, n, level), levelWidth(t, ph, b, +1, n, level)
 		sum += math.Log(f / r)
 	}
 	return math.Exp(math.Abs(sum / float64(len(asymLevels)))), riseMS, fallMS
 }
 
-// flankWidth returns the time, in samples, from the peak to where the flank
-// towards base (direction dir) first falls to level (in the peak's
-// polarity), linearly interpolated between samples; NaN if it does not
-// before the base.
-func flankWidth(t *trace, ph phase, base, dir int, level float64) float64 {
-	prev := ph.sign * float64(t.x[ph.peak])
-	for i, k := ph.peak+dir, 1; i != base+dir; i, k = i+dir, k+1 {
-		v := ph.sign * float64(t.x[i])
+// levelWidth returns the time, in samples, from the peak to where the trace
+// in direction dir first falls to level above the baseline b (in the
+// peak's polarity), linearly interpolated between samples; n (or the
+// distance to the trace's end) when it does not within n samples.
+func levelWidth(t *trace, ph phase, b float64, dir, n int, level float64) float64 {
+	top := ph.sign * (float64(t.x[ph.peak]) - b)
+	prev := top
+	k := 1
+	for i := ph.peak + dir; i >= t.lo && i < t.hi && k <= n; i, k = i+dir, k+1 {
+		v := ph.sign * (float64(t.x[i]) - b)
 		if v <= level {
 			return float64(k-1) + (prev-level)/(prev-v)
 		}
 		prev = v
 	}
-	return math.NaN()
+	return float64(k - 1)
 }

@@ -9,10 +9,13 @@ import (
 	"testing"
 
 	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/sampling/synth"
 )
 
 // diagExtra computes experimental per-event values for TestFeatureDump
 // (none by default; a scratch test file may set it while trying a feature).
+var diagStates []synth.StateSpan
+
 var diagExtra = func(e *engine, w window, c cluster, t *trace) []float64 { return nil }
 
 // TestFeatureDump is a diagnostic, run only with QUORATE_DIAG_DUMP set to a
@@ -43,6 +46,7 @@ func TestFeatureDump(t *testing.T) {
 	var xmeets, xunclear [][6]bool
 	for _, seed := range seeds {
 		g := generated(t, seed, 10)
+		diagStates = g.States
 		in := inputOf(g)
 		s, _ := (&Options{}).settings()
 		e := newEngine(s, &in)
@@ -61,7 +65,7 @@ func TestFeatureDump(t *testing.T) {
 			}
 			for _, c := range e.find(w, ws, we) {
 				rows = append(rows, e.row(w, c))
-				tr := &trace{x: e.det[c.best.deriv], lo: w.lo, hi: w.hi, fs: e.rate}
+				tr, _, _ := e.traceOf(w, c)
 				ex = append(ex, diagExtra(e, w, c, tr))
 			}
 		}

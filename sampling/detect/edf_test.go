@@ -7,12 +7,14 @@ import (
 	"time"
 
 	"github.com/quorate-eeg/quorate/sampling/edf"
+	"github.com/quorate-eeg/quorate/sampling/synth"
 )
 
 // writeEDF writes channels (one per label, µV at rate Hz, whole seconds) as
 // an EDF+C file with 1 s records and returns its path. physRange overrides
-// the physical range of every signal when non-nil.
-func writeEDF(t testing.TB, dir, name string, labels []string, data [][]float32, rate int, physRange *[2]float64) string {
+// the physical range of every signal when non-nil. Annotations go into the
+// record holding their onset.
+func writeEDF(t testing.TB, dir, name string, labels []string, data [][]float32, rate int, physRange *[2]float64, anns ...edf.Annotation) string {
 	t.Helper()
 	sigs := make([]edf.Signal, len(labels))
 	for i, l := range labels {
@@ -37,7 +39,13 @@ func writeEDF(t testing.TB, dir, name string, labels []string, data [][]float32,
 		for c := range labels {
 			rec[c] = data[c][r*rate : (r+1)*rate]
 		}
-		if err := w.WriteRecord(rec); err != nil {
+		var here []edf.Annotation
+		for _, a := range anns {
+			if a.Onset >= float64(r) && a.Onset < float64(r+1) {
+				here = append(here, a)
+			}
+		}
+		if err := w.WriteRecord(rec, here...); err != nil {
 			t.Fatal(err)
 		}
 	}
@@ -45,4 +53,18 @@ func writeEDF(t testing.TB, dir, name string, labels []string, data [][]float32,
 		t.Fatal(err)
 	}
 	return path
+}
+
+// stageAnnotations annotates a generated recording's vigilance spans as
+// sampling/synth writes them (AASM stage names, Berry et al. 2017).
+func stageAnnotations(g *synth.Recording) []edf.Annotation {
+	var anns []edf.Annotation
+	for _, st := range g.States {
+		text := "Sleep stage W"
+		if st.State == synth.Drowsy {
+			text = "Sleep stage N1"
+		}
+		anns = append(anns, edf.Annotation{Onset: st.Start, Duration: st.End - st.Start, HasDuration: true, Text: text})
+	}
+	return anns
 }

@@ -29,7 +29,8 @@ func (s *edfSource) ReadAt(ch int, start int64, dst []float32) error {
 // edfInputs splits an EDF-family recording into Inputs: one per contiguous
 // segment (EDF+D is processed segment by segment, never across a gap), over
 // the scalp EEG signals at the most common EEG sampling rate. Signals at
-// other rates, and non-EEG signals, are left out with a warning.
+// other rates, and non-EEG signals, are left out with a warning. Each Input
+// carries the vigilance spans of the recording's sleep-stage annotations.
 func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) {
 	h := r.Header()
 	var warns []string
@@ -74,6 +75,10 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 	if err != nil {
 		return nil, warns, err
 	}
+	states, err := recordingStates(r)
+	if err != nil {
+		return nil, warns, fmt.Errorf("annotations: %w", err)
+	}
 	var spr int64
 	for _, i := range sigs[:1] {
 		spr = int64(h.Signals[i].SamplesPerRecord)
@@ -85,7 +90,7 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 			RecordingID: recID, SubjectKey: subject,
 			Labels: labels, PhysRange: ranges, Rate: rate,
 			Len: sg.Records * spr, StartS: sg.Start, FirstSample: first,
-			Src: &edfSource{r: r, sigs: sigs, first: first},
+			Src: &edfSource{r: r, sigs: sigs, first: first}, States: states,
 		})
 	}
 	return ins, warns, nil

@@ -49,6 +49,8 @@ type engine struct {
 	dets            []detection
 	vmap, emap      []float64
 	bank            bank
+	vc              blockCov // the window's background moments for criterion 3
+	vcReady         bool     // vc is of the current window
 }
 
 // warn records a warning once per distinct text, counting repeats.
@@ -164,6 +166,7 @@ type window struct {
 // on [qs, qe), applies the montages and filters. It returns ok = false, with
 // a warning, when the window cannot be used.
 func (e *engine) condition(cs, ce, qs, qe int64) (window, bool, error) {
+	e.vcReady = false
 	in := e.in
 	rs, re := max(cs-int64(e.margin), 0), min(ce+int64(e.margin), in.Len)
 	L := int(re - rs)
@@ -356,12 +359,35 @@ func (e *engine) find(w window, ws, we int64) []cluster {
 	return out[:k]
 }
 
+// traceOf returns the trace event c is measured on, with the bounds of its
+// vigilance state when the input gives states, its onset (seconds from the
+// recording start) and its state.
+func (e *engine) traceOf(w window, c cluster) (t *trace, onset float64, state string) {
+	in := e.in
+	t = &trace{x: e.det[c.best.deriv], lo: w.lo, hi: w.hi, fs: e.rate}
+	onset = in.StartS + float64(w.base+int64(c.best.ph.peak))/e.rate
+	state = StateUnknown
+	if sp, ok := spanAt(in.States, onset); ok {
+		state = sp.State
+		at := func(s float64) int { // buffer index of time s, clamped to the window
+			i := math.Round((s-in.StartS)*e.rate) - float64(w.base)
+			return int(max(float64(w.lo), min(float64(w.hi), i)))
+		}
+		t.stLo, t.stHi = at(sp.Start), at(sp.End)
+	}
+	return t, onset, state
+}
+
 // row measures one event and fills its candidate row.
 func (e *engine) row(w window, c cluster) candidate.Row {
 	in := e.in
 	ph := c.best.ph
-	t := &trace{x: e.det[c.best.deriv], lo: w.lo, hi: w.hi, fs: e.rate}
-	ms := measure(t, ph, &e.sc)
+	t, onset, state := e.traceOf(w, c)
+	if !e.vcReady {
+		e.vc.build(e.det, w.lo, w.hi, w.base, e.rate)
+		e.vcReady = true
+	}
+	ms := measure(t, ph, e.det, &e.vc, &e.sc)
 	labels := in.Labels
 	elec := labels[w.m.detPlus[c.best.deriv]]
 	car := e.carTraces(w)
@@ -401,7 +427,7 @@ func (e *engine) row(w window, c cluster) candidate.Row {
 		RecordingID:        in.RecordingID,
 		SubjectKey:         in.SubjectKey,
 		Source:             e.source,
-		OnsetS:             in.StartS + float64(w.base+int64(ph.peak))/e.rate,
+		OnsetS:             onset,
 		PeakChannel:        elec,
 		Polarity:           map[bool]string{true: "negative", false: "positive"}[pol < 0],
 		Lobe:               lobe,
@@ -409,7 +435,7 @@ func (e *engine) row(w window, c cluster) candidate.Row {
 		Region:             strings.Trim(lobe+"-"+side, "-"),
 		Channels:           chans,
 		AmplitudeUV:        ph.amp,
-		State:              "unknown",
+		State:              state,
 		C1DurationMS:       ms.durMS,
 		C1Sharpness:        ms.sharp,
 		C1Phases:           int32(ms.phases),

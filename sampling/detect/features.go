@@ -11,6 +11,20 @@ type trace struct {
 	x      []float32
 	lo, hi int // the conditioned, usable part of x
 	fs     float64
+	// stLo, stHi bound the event's vigilance state within [lo, hi) when
+	// the recording's annotations give one (stHi > stLo); see sameState.
+	stLo, stHi int
+}
+
+// sameState returns t confined to the event's vigilance state, or t itself
+// when no state is known.
+func (t *trace) sameState() *trace {
+	if t.stHi <= t.stLo {
+		return t
+	}
+	c := *t
+	c.lo, c.hi = max(t.lo, t.stLo), min(t.hi, t.stHi)
+	return &c
 }
 
 // Background reference around a peak at p, in seconds: [p−5, p−0.5] before
@@ -60,6 +74,7 @@ type scratch struct {
 	co   []complex128
 	cum  []float64
 	med  []float32
+	vc   virtualScratch
 }
 
 // measures are the feature values of one event before they go into a Row.
@@ -73,11 +88,19 @@ type measures struct {
 	disrupt           float64
 }
 
-func measure(t *trace, ph phase, sc *scratch) measures {
+// measure measures an event on its peak derivation's trace t, and
+// criterion 3 on the virtual channel of all derivations xs (virtualChannel,
+// with the window's background covariances bc; the peak derivation when
+// there is none).
+func measure(t *trace, ph phase, xs [][]float32, bc *blockCov, sc *scratch) measures {
 	var m measures
 	m.durMS, m.point, m.sharp, m.phases = spiky(t, ph, sc)
 	m.logRatio, m.bgMS = durationRatio(t, ph, sc)
-	m.asym, m.riseMS, m.fMS = asymmetry(t, ph)
+	if yt, yph, ok := virtualChannel(xs, t, ph, bc, &sc.vc); ok {
+		m.asym, m.riseMS, m.fMS = asymmetry(yt, yph)
+	} else {
+		m.asym, m.riseMS, m.fMS = asymmetry(t, ph)
+	}
 	m.slow = slowWave(t, ph, sc)
 	m.disrupt = disruption(t, ph)
 	return m

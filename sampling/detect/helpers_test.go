@@ -79,7 +79,11 @@ func inputOf(rec *synth.Recording) Input {
 			data = append(data, rec.Data[i])
 		}
 	}
-	return Input{RecordingID: "synth", Labels: labels, Rate: rec.Rate, Len: int64(len(data[0])), Src: data}
+	var states []StateSpan
+	for _, sp := range rec.States {
+		states = append(states, StateSpan{Start: sp.Start, End: sp.End, State: string(sp.State)})
+	}
+	return Input{RecordingID: "synth", Labels: labels, Rate: rec.Rate, Len: int64(len(data[0])), Src: data, States: states}
 }
 
 // detectFileRows collects detectFile's rows.

@@ -18,4 +18,8 @@ type Input struct {
 	Src         signal.Source
 	StartS      float64 // time of sample 0, seconds from the recording start
 	FirstSample int64   // index of sample 0 in the recording, for event ids
+	// States are the vigilance spans the recording's annotations give,
+	// seconds from the recording start (nil when it gives none): each row's
+	// State, and the stretch whose spectrum criterion 2 reads.
+	States []StateSpan
 }

@@ -141,15 +141,8 @@ func runOne(ctx context.Context, s *settings, roots []string, outDir string, sha
 		return fail("write", err)
 	}
 	defer out.Abort()
-	spans, err := recordingStates(f)
-	if err != nil {
-		return fail("annotations", err)
-	}
 	var werr error
 	warns, err := detectFile(ctx, s, f, r.RecordingID, r.SubjectKey, func(rows []candidate.Row) error {
-		for i := range rows {
-			rows[i].State = StateAt(spans, rows[i].OnsetS)
-		}
 		werr = out.Write(rows)
 		return werr
 	})

@@ -75,11 +75,19 @@ func States(anns []edf.Annotation) []StateSpan {
 
 // StateAt returns the state at time t, or StateUnknown.
 func StateAt(spans []StateSpan, t float64) string {
-	i := sort.Search(len(spans), func(i int) bool { return spans[i].Start > t }) - 1
-	if i >= 0 && t < spans[i].End {
-		return spans[i].State
+	if sp, ok := spanAt(spans, t); ok {
+		return sp.State
 	}
 	return StateUnknown
+}
+
+// spanAt returns the span holding time t, if any.
+func spanAt(spans []StateSpan, t float64) (StateSpan, bool) {
+	i := sort.Search(len(spans), func(i int) bool { return spans[i].Start > t }) - 1
+	if i >= 0 && t < spans[i].End {
+		return spans[i], true
+	}
+	return StateSpan{}, false
 }
 
 // recordingStates reads the vigilance states an EDF+ recording's annotations give (none
