@@ -13,8 +13,10 @@
 // rounded wave's, are detections; detections within ±MergeMS of each other on any
 // channels are one event, anchored on the sharpest large one. Rows are written as
 // each window is measured. Each event then gets the
-// six criterion features (see FEATURES.md, one file c1.go … c6.go per criterion),
-// the yes/no of each at its cutoff, their count and a ranking score.
+// six criterion features (see FEATURES.md, one file c1.go … c6.go per criterion;
+// c3 reads the event's virtual channel, virtual.go), the yes/no of each at its
+// cutoff, their count and a ranking score. A recording's sleep-stage annotations
+// give each row its vigilance state and keep c2's background spectrum to it.
 //
 // Run processes an archive's recordings in parallel and writes one Parquet table
 // (candidate.Row) per recording; MeasureAt measures the same features at given
