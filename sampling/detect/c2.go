@@ -29,13 +29,13 @@ const (
 // + turnTol, so that the near-equal phases of a rhythm keep theirs), the
 // main phase is a wiggle on the flank of a larger wave, as c1 reads it
 // (spikiness), most often the zero-phase low-pass's ringing lobe just
-// before a pop's step; D is then that larger wave's (largerWave). f_bg is the frequency in 1–30 Hz maximising f·P(f),
-// P the Welch (1967) power spectrum of the background ranges within
-// specSpanS (16 s) of the peak (see trace.backgroundSpan) and within the
-// event's vigilance state when the recording's annotations give it
-// (trace.sameState; the whole span when that leaves no full segment):
-// Hann-windowed, mean-removed 2 s segments with 50 % overlap, periodograms
-// averaged. Weighting by f reads the spectrum per octave, so the steep 1/f
+// before a pop's step; D is then that larger wave's (largerWave). f_bg is
+// the frequency in 1–30 Hz maximising f·P(f), P the Welch (1967) power
+// spectrum of the background ranges within specSpanS (16 s) of the peak
+// (see trace.backgroundSpan) and within the event's vigilance state when
+// the recording's annotations give it (trace.sameState; the whole span when
+// that leaves no full segment): Hann-windowed, mean-removed 2 s segments
+// with 50 % overlap, periodograms averaged. Weighting by f reads the spectrum per octave, so the steep 1/f
 // slope of ongoing EEG does not make the lowest frequency win by default
 // and a background rhythm such as alpha is found where present. Keeping to
 // one state compares the event with the background it interrupts:

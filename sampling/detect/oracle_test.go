@@ -21,7 +21,9 @@ import (
 // phase, and at a main phase walked again on the clean trace), and on the
 // events plus the background's slow part or fast part only (split by a
 // centred box of 2k+1 samples, k = QUORATE_DIAG_BOX, default 16: about
-// 8 Hz at 256 Hz). FEATURES.md quotes the figures.
+// 8 Hz at 256 Hz). It reads c3 on the peak derivation, as c3 was read when
+// this diagnostic led to its virtual channel (virtual.go). FEATURES.md
+// quotes the figures.
 func TestBackgroundOracle(t *testing.T) {
 	v := os.Getenv("QUORATE_DIAG_ORACLE")
 	if v == "" {

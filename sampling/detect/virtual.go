@@ -14,7 +14,8 @@ import (
 //
 //	w = R⁻¹a / (aᵀR⁻¹a),  y(t) = wᵀx(t),  R = C + δ·(tr C / n)·I
 //
-// a the derivations' values at the peak in the peak's polarity, C the
+// a the derivations' values at the peak less their centred moving mean (the
+// map in the band C describes), in the peak's polarity, C the
 // covariance of the background ranges (backgroundSpan within specSpanS, and
 // within the event's vigilance state when known, as criterion 2's spectrum)
 // after removing a centred moving mean of about 1/vcHighHz (so that C is the
