@@ -84,13 +84,11 @@ const preBaseS = 0.3
 // the stretch before the step of a pop holds only background. NaN when the
 // peak is not above the baseline or the trace is too short.
 func oppositePhase(t *trace, ph phase, sc *scratch) float64 {
-	a := ph.left - int(math.Round(preBaseS*t.fs))
 	D := min(ph.right-ph.left, int(math.Round(oppMaxS*t.fs)))
-	if a < t.lo || ph.right+D >= t.hi {
+	b, ok := localBaseline(t, ph, sc)
+	if !ok || ph.right+D >= t.hi {
 		return math.NaN()
 	}
-	sc.med = append(sc.med[:0], t.x[a:ph.left]...)
-	b := median32(sc.med)
 	top := ph.sign * (float64(t.x[ph.peak]) - b)
 	if !(top > 0) {
 		return math.NaN()
@@ -100,6 +98,18 @@ func oppositePhase(t *trace, ph phase, sc *scratch) float64 {
 		opp = max(opp, -ph.sign*(float64(v)-b))
 	}
 	return opp / top
+}
+
+// localBaseline returns the median of the preBaseS before the main phase's
+// left base, the baseline c1's opposite phase, c2's return and c3's levels
+// are measured from; ok is false when that stretch starts before t.lo.
+func localBaseline(t *trace, ph phase, sc *scratch) (b float64, ok bool) {
+	a := ph.left - int(math.Round(preBaseS*t.fs))
+	if a < t.lo {
+		return 0, false
+	}
+	sc.med = append(sc.med[:0], t.x[a:ph.left]...)
+	return median32(sc.med), true
 }
 
 // countPhases counts the half-waves beyond the turning point at start, in

@@ -56,7 +56,7 @@ func TestC1Duration(t *testing.T) {
 			t.Errorf("R=%d F=%d: sharpness %g, want %g", c.r, c.f, sharp, want)
 		}
 		// c3 on a triangle: steepest slopes a/R and a/F, ratio F/R
-		asym, rise, fall := asymmetry(tr, ph)
+		asym, rise, fall := asymmetry(tr, ph, &scratch{})
 		if want := float64(max(c.r, c.f)) / float64(min(c.r, c.f)); math.Abs(asym-want) > 1e-4 {
 			t.Errorf("R=%d F=%d: asymmetry %g, want %g", c.r, c.f, asym, want)
 		}

@@ -154,28 +154,15 @@ const returnMaxS = 1.0
 // and is kept. Falls back to base to base when the baseline is undefined.
 func waveDuration(t *trace, ph phase, sc *scratch) float64 {
 	d := float64(ph.right - ph.left)
-	a := ph.left - int(math.Round(preBaseS*t.fs))
-	if a < t.lo {
+	b, ok := localBaseline(t, ph, sc)
+	if !ok {
 		return d
 	}
-	sc.med = append(sc.med[:0], t.x[a:ph.left]...)
-	b := median32(sc.med)
 	top := ph.sign * (float64(t.x[ph.peak]) - b)
 	if !(top > 0) {
 		return d
 	}
 	level := returnFrac * top
 	n := int(math.Round(returnMaxS * t.fs))
-	cross := func(dir int) float64 {
-		prev := top
-		for i, k := ph.peak+dir, 1; i >= t.lo && i < t.hi && k <= n; i, k = i+dir, k+1 {
-			v := ph.sign * (float64(t.x[i]) - b)
-			if v <= level {
-				return float64(k-1) + (prev-level)/(prev-v)
-			}
-			prev = v
-		}
-		return float64(n)
-	}
-	return max(d, cross(-1)+cross(+1))
+	return max(d, levelWidth(t, ph, b, -1, n, level)+levelWidth(t, ph, b, +1, n, level))
 }

@@ -33,16 +33,13 @@ var asymLevels = [...]float64{0.5, 0.6, 0.7, 0.8}
 // height is partly that wave's, the baseline is not. Also returns the two
 // base-to-base half-wave durations (ms). NaN when the baseline is not
 // defined (too near the trace's start) or the peak is not above it.
-func asymmetry(t *trace, ph phase) (ratio, riseMS, fallMS float64) {
+func asymmetry(t *trace, ph phase, sc *scratch) (ratio, riseMS, fallMS float64) {
 	riseMS = float64(ph.peak-ph.left) / t.fs * 1000
 	fallMS = float64(ph.right-ph.peak) / t.fs * 1000
-	a := ph.left - int(math.Round(preBaseS*t.fs))
-	if a < t.lo {
+	b, ok := localBaseline(t, ph, sc)
+	if !ok {
 		return math.NaN(), riseMS, fallMS
 	}
-	med := make([]float32, ph.left-a)
-	copy(med, t.x[a:ph.left])
-	b := median32(med)
 	top := ph.sign * (float64(t.x[ph.peak]) - b)
 	if !(top > 0) {
 		return math.NaN(), riseMS, fallMS
@@ -60,7 +57,8 @@ func asymmetry(t *trace, ph phase) (ratio, riseMS, fallMS float64) {
 // levelWidth returns the time, in samples, from the peak to where the trace
 // in direction dir first falls to level above the baseline b (in the
 // peak's polarity), linearly interpolated between samples; n (or the
-// distance to the trace's end) when it does not within n samples.
+// distance to the trace's end) when it does not within n samples. c2's
+// return (waveDuration) and c3's levels are both read with it.
 func levelWidth(t *trace, ph phase, b float64, dir, n int, level float64) float64 {
 	top := ph.sign * (float64(t.x[ph.peak]) - b)
 	prev := top

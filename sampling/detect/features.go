@@ -97,9 +97,9 @@ func measure(t *trace, ph phase, xs [][]float32, bc *blockCov, sc *scratch) meas
 	m.durMS, m.point, m.sharp, m.phases = spiky(t, ph, sc)
 	m.logRatio, m.bgMS = durationRatio(t, ph, sc)
 	if yt, yph, ok := virtualChannel(xs, t, ph, bc, &sc.vc); ok {
-		m.asym, m.riseMS, m.fMS = asymmetry(yt, yph)
+		m.asym, m.riseMS, m.fMS = asymmetry(yt, yph, sc)
 	} else {
-		m.asym, m.riseMS, m.fMS = asymmetry(t, ph)
+		m.asym, m.riseMS, m.fMS = asymmetry(t, ph, sc)
 	}
 	m.slow = slowWave(t, ph, sc)
 	m.disrupt = disruption(t, ph)

@@ -93,7 +93,7 @@ func TestBackgroundOracle(t *testing.T) {
 					}
 					return math.Abs(math.Log(d / e.rate * 1000 / (500 / fb)))
 				}
-				c3 := func(y *trace, p phase) float64 { r, _, _ := asymmetry(y, p); return r }
+				c3 := func(y *trace, p phase) float64 { r, _, _ := asymmetry(y, p, &e.sc); return r }
 				c2s = append(c2s, [5]float64{c2(act, ph), c2(tr(clean), ph), c2(tr(clean), own), c2(tr(slow), ph), c2(tr(fast), ph)})
 				c3s = append(c3s, [5]float64{c3(act, ph), c3(tr(clean), ph), c3(tr(clean), own), c3(tr(slow), ph), c3(tr(fast), ph)})
 			}

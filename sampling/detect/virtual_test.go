@@ -71,11 +71,11 @@ func TestVirtualChannel(t *testing.T) {
 	if rms := math.Sqrt(ss / 100); rms > 0.05 {
 		t.Errorf("virtual channel's background RMS %g: the rhythm (RMS 0.35 on derivation 0) is not cancelled", rms)
 	}
-	got, _, _ := asymmetry(yt, yph)
+	got, _, _ := asymmetry(yt, yph, &scratch{})
 	if math.Abs(got-2) > 0.1 {
 		t.Errorf("asymmetry on the virtual channel %g, want F/R = 2", got)
 	}
-	raw, _, _ := asymmetry(tr, ph)
+	raw, _, _ := asymmetry(tr, ph, &scratch{})
 	t.Logf("asymmetry: virtual channel %.3f, peak derivation %.3f", got, raw)
 	if math.Abs(raw-2) < 0.2 {
 		t.Errorf("asymmetry on the peak derivation %g: the fixture's rhythm does not disturb it, so the check above proves nothing", raw)
