@@ -4,7 +4,6 @@
 package parquetfile
 
 import (
-	"fmt"
 	"io"
 	"os"
 
@@ -29,21 +28,4 @@ func Write[T any](path string, rows []T, perm os.FileMode) error {
 		}
 		return pw.Close()
 	})
-}
-
-// Read reads every row of path.
-func Read[T any](path string) ([]T, error) {
-	f, err := os.Open(path)
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	r := parquet.NewGenericReader[T](f)
-	defer r.Close()
-	out := make([]T, r.NumRows())
-	n, err := r.Read(out)
-	if err != nil && err != io.EOF {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	return out[:n], nil
 }

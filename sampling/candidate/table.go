@@ -11,6 +11,7 @@ import (
 	"github.com/parquet-go/parquet-go/compress/zstd"
 
 	"github.com/quorate-eeg/quorate/internal/atomicfile"
+	"github.com/quorate-eeg/quorate/internal/parquetfile"
 )
 
 // Write writes rows to path as Parquet, atomically.
@@ -27,22 +28,9 @@ func Write(path string, rows []Row) error {
 	})
 }
 
-// Read reads one Parquet file of rows.
-func Read(path string) ([]Row, error) {
-	f, err := os.Open(path)
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	r := parquet.NewGenericReader[Row](f)
-	defer r.Close()
-	out := make([]Row, r.NumRows())
-	n, err := r.Read(out)
-	if err != nil && err != io.EOF {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	return out[:n], nil
-}
+// Read reads one Parquet file of rows. A damaged file or one of another table is an
+// error naming the file (parquetfile.FileError).
+func Read(path string) ([]Row, error) { return parquetfile.Read[Row](path) }
 
 // ReadDir reads every *.parquet file under dir (recursively, so shard folders such as
 // shard=0/ are included) as one table, ordered by recording and onset.

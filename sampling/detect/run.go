@@ -19,6 +19,7 @@ import (
 type Result struct {
 	Processed int                 // recordings detected in this run
 	Skipped   int                 // recordings whose output already existed (resumed)
+	Redone    int                 // recordings detected again: their settings had changed
 	Failed    int                 // recordings that could not be processed
 	Events    int                 // candidate rows written in this run
 	Warnings  map[string][]string // per RecordingID: degradations and failures
@@ -43,8 +44,9 @@ func OutputPath(outDir string, shard int, recordingID string) string {
 
 // Run detects candidates in every recording of the selected shard, in
 // parallel over o.Workers recordings, and writes one Parquet file per
-// recording (candidate.Write, atomic). A recording whose file exists is
-// skipped, so an interrupted run resumes where it stopped. A recording that
+// recording (candidate.Write, atomic). A recording whose file exists and was
+// detected with the same settings is skipped, so an interrupted run resumes
+// where it stopped; one detected with other settings is detected again. A recording that
 // fails is counted and its error kept in Result.Warnings; the run goes on.
 // The error return is for invalid options, a cancelled context, or an
 // output folder that cannot be created.
@@ -64,15 +66,20 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, err
 	}
+	fp := s.fingerprint()
 	var todo []archive.Recording
 	res := &Result{Warnings: map[string][]string{}}
 	for _, r := range o.Recordings {
 		if ShardOf(r.RecordingID, s.shards) != shard {
 			continue
 		}
-		if _, err := os.Stat(OutputPath(o.OutDir, shard, r.RecordingID)); err == nil {
+		ok, exists := current(o.OutDir, shard, r.RecordingID, fp)
+		if ok {
 			res.Skipped++
 			continue
+		}
+		if exists {
+			res.Redone++
 		}
 		todo = append(todo, r)
 	}
@@ -158,6 +165,10 @@ func runOne(ctx context.Context, s *settings, roots []string, outDir string, sha
 		return 0, warns, e
 	}
 	if err := out.Close(); err != nil {
+		_, _, e := fail("write", err)
+		return 0, warns, e
+	}
+	if err := writeFingerprint(outDir, shard, r.RecordingID, s.fingerprint()); err != nil {
 		_, _, e := fail("write", err)
 		return 0, warns, e
 	}

@@ -69,6 +69,9 @@ var ErrDrawExists = errors.New("a draw already exists; use --top-up N to add eve
 // Run draws events (and background controls) and writes draw.parquet, design.json and
 // strata.csv. An existing draw is never silently replaced.
 func Run(o RunOptions) (*RunResult, error) {
+	if o.TopUp < 0 {
+		return nil, fmt.Errorf("top-up: got %d events, want at least 1", o.TopUp)
+	}
 	out := filepath.Join(o.OutDir, DrawFile)
 	_, statErr := os.Stat(out)
 	exists := statErr == nil
@@ -147,8 +150,16 @@ func Run(o RunOptions) (*RunResult, error) {
 	}
 	sort.Slice(rows, func(i, j int) bool { return rows[i].Order < rows[j].Order })
 	res.Rows = rows
+	// Whatever replaces draw.parquet keeps the earlier one: a replaced draw is moved
+	// aside whole, a topped-up one is copied first (its design.json stays in force).
 	if exists && o.Replace {
-		old, err := keepAside(o.OutDir)
+		old, err := keepAside(o.OutDir, "replaced", true)
+		if err != nil {
+			return nil, err
+		}
+		res.Replaced = old
+	} else if exists {
+		old, err := keepAside(o.OutDir, "before-top-up", false)
 		if err != nil {
 			return nil, err
 		}
@@ -182,22 +193,34 @@ func drawControls(o RunOptions, m int) ([]Control, int, error) {
 	return DrawControls(spans, onsets, o.ControlEpochS, o.ControlDistS, m, o.Design.Seed)
 }
 
-// keepAside renames the current draw files to draw.replaced-N.* so that nothing is lost.
-func keepAside(dir string) (string, error) {
+// keepAside keeps the current draw files as draw.TAG-N.* (moved, or copied when move is
+// false) so that nothing is lost, and returns the kept draw.parquet's path.
+func keepAside(dir, tag string, move bool) (string, error) {
 	for n := 1; ; n++ {
-		tag := fmt.Sprintf("replaced-%d", n)
-		dst := filepath.Join(dir, "draw."+tag+".parquet")
-		if _, err := os.Stat(dst); err == nil {
+		t := fmt.Sprintf("%s-%d", tag, n)
+		dst := filepath.Join(dir, "draw."+t+".parquet")
+		if _, err := os.Lstat(dst); err == nil {
 			continue
 		}
 		for _, name := range []string{DrawFile, DesignFile, StrataFile} {
 			src := filepath.Join(dir, name)
 			ext := filepath.Ext(name)
-			to := filepath.Join(dir, strings.TrimSuffix(name, ext)+"."+tag+ext)
-			if _, err := os.Stat(src); err == nil {
+			to := filepath.Join(dir, strings.TrimSuffix(name, ext)+"."+t+ext)
+			if _, err := os.Stat(src); err != nil {
+				continue
+			}
+			if move {
 				if err := os.Rename(src, to); err != nil {
 					return "", err
 				}
+				continue
+			}
+			b, err := os.ReadFile(src)
+			if err != nil {
+				return "", err
+			}
+			if err := atomicfile.Create(to, b, 0o644); err != nil {
+				return "", err
 			}
 		}
 		return dst, nil

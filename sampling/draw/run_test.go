@@ -95,6 +95,10 @@ func TestRunDrawTopUpReplace(t *testing.T) {
 	if phase2 != 30 || len(res2.Rows) != 100 {
 		t.Fatalf("top-up: %d new rows, %d in all; want 30 and 100", phase2, len(res2.Rows))
 	}
+	// The draw before the top-up is kept.
+	if before, err := ReadRows(filepath.Join(dir, "draw.before-top-up-1.parquet")); err != nil || len(before) != 70 {
+		t.Fatalf("draw before the top-up: %d rows, %v; want the first 70 kept", len(before), err)
+	}
 	rep := o
 	rep.Replace = true
 	if _, err := Run(rep); err != nil {
@@ -143,5 +147,31 @@ func TestRunTakesAllControlsWhenFew(t *testing.T) {
 	}
 	if n != res.Eligible || n == 0 || len(res.Warnings) == 0 {
 		t.Fatalf("%d controls of %d eligible, warnings %v", n, res.Eligible, res.Warnings)
+	}
+}
+
+// A negative top-up once fell through to a fresh draw written over the old one with no
+// copy kept; it must be refused and leave the draw as it was.
+func TestRunRefusesNegativeTopUp(t *testing.T) {
+	cands, recs := runFixture()
+	dir := t.TempDir()
+	specs, _ := ParseStrata("region")
+	o := RunOptions{Candidates: cands, Recordings: recs, OutDir: dir,
+		Design: Design{Strata: specs, Alloc: Allocation{Method: Proportional, N: 30}, Seed: 3}}
+	if _, err := Run(o); err != nil {
+		t.Fatal(err)
+	}
+	before, _ := os.ReadFile(filepath.Join(dir, DrawFile))
+	o.TopUp = -10
+	o.Design.Seed = 4
+	if _, err := Run(o); err == nil {
+		t.Fatal("top-up of -10 accepted")
+	}
+	after, _ := os.ReadFile(filepath.Join(dir, DrawFile))
+	if !bytes.Equal(before, after) {
+		t.Error("a refused top-up changed draw.parquet")
+	}
+	if m, _ := filepath.Glob(filepath.Join(dir, "draw.*-1.parquet")); len(m) != 0 {
+		t.Errorf("a refused top-up left %v", m)
 	}
 }

@@ -1,0 +1,103 @@
+package parquetfile
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"github.com/parquet-go/parquet-go"
+)
+
+// ErrDamaged marks a file that is not a readable Parquet file: a torn footer, a
+// truncated page, bytes that are not Parquet at all.
+var ErrDamaged = errors.New("damaged Parquet file")
+
+// ErrSchema marks a Parquet file that is whole but holds another table than the one
+// asked for (a column missing or of another type).
+var ErrSchema = errors.New("Parquet file of another table")
+
+// FileError reports a Parquet file that cannot be read as the table asked for. Err is
+// ErrDamaged or ErrSchema, wrapped with the detail.
+type FileError struct {
+	Path   string
+	Detail string
+	Err    error
+}
+
+func (e *FileError) Error() string { return fmt.Sprintf("%s: %v: %s", e.Path, e.Err, e.Detail) }
+func (e *FileError) Unwrap() error { return e.Err }
+
+// Read reads every row of path. A damaged file or one of another schema is a
+// *FileError naming the file; parquet-go panics on some damaged pages, and such a panic
+// is turned into that error rather than ending the program.
+func Read[T any](path string) (out []T, err error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	st, err := f.Stat()
+	if err != nil {
+		return nil, err
+	}
+	defer func() {
+		if p := recover(); p != nil {
+			out, err = nil, &FileError{Path: path, Detail: fmt.Sprint(p), Err: ErrDamaged}
+		}
+	}()
+	pf, err := parquet.OpenFile(f, st.Size())
+	if err != nil {
+		return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrDamaged}
+	}
+	if err := Conforms(pf.Schema(), parquet.SchemaOf(new(T))); err != nil {
+		return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrSchema}
+	}
+	r := parquet.NewGenericReader[T](pf)
+	defer r.Close()
+	out = make([]T, pf.NumRows())
+	n, err := r.Read(out)
+	if err != nil && err != io.EOF {
+		return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrDamaged}
+	}
+	if int64(n) != pf.NumRows() {
+		return nil, &FileError{Path: path, Detail: fmt.Sprintf("%d of %d rows readable", n, pf.NumRows()), Err: ErrDamaged}
+	}
+	return out[:n], nil
+}
+
+// Check reads path as a table of T and throws the rows away: the footer, the schema and
+// every page are checked.
+func Check[T any](path string) error {
+	_, err := Read[T](path)
+	return err
+}
+
+// Conforms reports whether every leaf column of want is in got with the same physical
+// kind and repetition. Extra columns in got are allowed.
+func Conforms(got, want *parquet.Schema) error {
+	var bad []string
+	for _, p := range want.Columns() {
+		w, _ := want.Lookup(p...)
+		g, ok := got.Lookup(p...)
+		name := strings.Join(p, ".")
+		if !ok {
+			bad = append(bad, "no column "+name)
+			continue
+		}
+		if gk, wk := g.Node.Type().Kind(), w.Node.Type().Kind(); gk != wk {
+			bad = append(bad, fmt.Sprintf("column %s is %v, want %v", name, gk, wk))
+		}
+		if g.MaxRepetitionLevel != w.MaxRepetitionLevel {
+			bad = append(bad, fmt.Sprintf("column %s repetition %d, want %d", name, g.MaxRepetitionLevel, w.MaxRepetitionLevel))
+		}
+	}
+	if len(bad) > 0 {
+		if len(bad) > 5 {
+			bad = append(bad[:5], fmt.Sprintf("and %d more", len(bad)-5))
+		}
+		return errors.New(strings.Join(bad, "; "))
+	}
+	return nil
+}
