@@ -104,6 +104,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	if err != nil {
 		return err
 	}
+	s.Stages = pipeline
 	profiles := simulate.Panel(f.raters)
 	names := make([]string, len(profiles))
 	for i, p := range profiles {

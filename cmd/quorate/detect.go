@@ -105,11 +105,11 @@ func runDetect(ctx context.Context, g *globals, s *study.Study, shard, shards in
 	}
 	if err := s.Record(study.Entry{Version: Version, Command: "detect", Argv: g.argv, Inputs: s.Hash(indexPath),
 		Outputs: s.Hash(s.Path(study.CandidatesDir)),
-		Notes: map[string]any{"shard": fmt.Sprintf("%d/%d", shard, shards), "processed": res.Processed, "resumed": res.Skipped,
+		Notes: map[string]any{"shard": fmt.Sprintf("%d/%d", shard, shards), "processed": res.Processed, "resumed": res.Skipped, "redone": res.Redone,
 			"failed": res.Failed, "candidates": res.Events}}); err != nil {
 		return err
 	}
-	fmt.Fprintf(g.stdout, "Detected %d candidates in %d recordings (%d already done, %d failed); see %s.\n",
-		res.Events, res.Processed, res.Skipped, res.Failed, s.Path(study.CandidatesDir))
+	fmt.Fprintf(g.stdout, "Detected %d candidates in %d recordings (%d already done, %d detected again with changed settings, %d failed); see %s.\n",
+		res.Events, res.Processed, res.Skipped, res.Redone, res.Failed, s.Path(study.CandidatesDir))
 	return g.finish(nWarn)
 }

@@ -47,6 +47,9 @@ files beside the new ones.`,
 			if err != nil {
 				return err
 			}
+			if cmd.Flags().Changed("top-up") && f.topUp < 1 {
+				return usageError{fmt.Errorf("--top-up: got %d, want the number of events to add (at least 1)", f.topUp)}
+			}
 			applyDrawDefaults(cmd, f, s.Config)
 			return runDraw(g, s, f)
 		},

@@ -93,7 +93,7 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 	seedCopy := seed
 	if rerr := s.Record(study.Entry{Version: Version, Command: "merge", Argv: g.argv, Seed: &seedCopy,
 		Inputs:  s.Hash(files...),
-		Outputs: s.Hash(s.Path(study.ConsensusDir)), Notes: notes}); rerr != nil {
+		Outputs: s.Hash(s.Path(study.ConsensusDir)), Notes: notes, KeepGeneration: res.Events == 0}); rerr != nil {
 		return rerr
 	}
 	if res.Events > 0 {

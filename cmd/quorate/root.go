@@ -37,6 +37,7 @@ type globals struct {
 	log       *slog.Logger
 	argv      []string
 	stdout    io.Writer
+	force     bool // go on although a stage before the command is stale
 }
 
 type usageError struct{ err error }
@@ -95,6 +96,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 	pf.BoolVar(&g.quiet, "quiet", false, "no progress bars, warnings and errors only")
 	pf.BoolVar(&g.strict, "strict", false, "exit with code 3 when a command finishes with warnings")
 	pf.StringVar(&g.logFormat, "log-format", "text", "log format: text or json")
+	pf.BoolVar(&g.force, "force", false, "go on although an earlier stage's outputs are of another generation than its inputs")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 
 	// Commands are listed in the order a study runs them, not alphabetically.
@@ -113,6 +115,9 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newDemoCmd(g),
 		newVersionCmd(g),
 	)
+	for _, c := range root.Commands() {
+		guard(g, c)
+	}
 	return root
 }
 
@@ -152,7 +157,14 @@ func isCobraUsage(err error) bool {
 }
 
 // openStudy opens the study named by --study.
-func (g *globals) openStudy() (*study.Study, error) { return study.Open(g.study) }
+func (g *globals) openStudy() (*study.Study, error) {
+	s, err := study.Open(g.study)
+	if err != nil {
+		return nil, err
+	}
+	s.Stages = pipeline
+	return s, nil
+}
 
 // finish applies --strict to a run's warning count.
 func (g *globals) finish(warnings int) error {

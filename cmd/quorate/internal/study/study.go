@@ -30,6 +30,9 @@ const (
 type Study struct {
 	Dir    string
 	Config *Config
+	// Stages are the study's steps in pipeline order; a command that is one of them
+	// records its generation in Record, and Stale checks those before a command.
+	Stages []Stage
 	secret []byte
 }
 

@@ -1,0 +1,126 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/sampling/draw"
+)
+
+var (
+	demoOnce sync.Once
+	demoDir  string
+	demoErr  error
+)
+
+// demoStudy returns a fresh copy of one small demo study (made once per test binary),
+// so that each test may damage its own.
+func demoStudy(t *testing.T) string {
+	t.Helper()
+	if testing.Short() {
+		t.Skip("needs a demo study; skipped in -short mode")
+	}
+	demoOnce.Do(func() {
+		dir, err := os.MkdirTemp("", "quorate-store-demo-")
+		if err != nil {
+			demoErr = err
+			return
+		}
+		demoDir = filepath.Join(dir, "demo")
+		var buf bytes.Buffer
+		root := newRoot(&globals{argv: []string{"quorate", "demo"}, stdout: &buf})
+		root.SetArgs([]string{"--quiet", "--workers", "2", "demo", "--out", demoDir, "--recordings", "3", "--minutes", "3",
+			"--n", "60", "--raters", "3", "--seed", "5"})
+		demoErr = root.Execute()
+	})
+	if demoErr != nil {
+		t.Fatal("demo:", demoErr)
+	}
+	dst := filepath.Join(t.TempDir(), "demo")
+	if out, err := exec.Command("cp", "-a", demoDir, dst).CombinedOutput(); err != nil {
+		t.Fatalf("copy demo: %v %s", err, out)
+	}
+	// The copy's study.yaml names the shared archive, which is only ever read.
+	return filepath.Join(dst, "study")
+}
+
+// run runs one quorate command line and returns its output and error.
+func run(t *testing.T, args ...string) (string, error) {
+	t.Helper()
+	var buf bytes.Buffer
+	g := &globals{argv: append([]string{"quorate"}, args...), stdout: &buf}
+	root := newRoot(g)
+	root.SetArgs(append([]string{"--quiet"}, args...))
+	err := root.Execute()
+	return buf.String(), err
+}
+
+// draw --top-up -10 once wrote a fresh draw over the old one with no copy and exit 0,
+// and tune then tuned on a consensus of events no longer drawn.
+func TestDrawTopUpAndStaleTune(t *testing.T) {
+	st := demoStudy(t)
+	drawPath := filepath.Join(st, study.DrawDir, draw.DrawFile)
+	before, _ := os.ReadFile(drawPath)
+	for _, n := range []string{"-10", "0"} {
+		_, err := run(t, "--study", st, "draw", "--top-up", n)
+		var ue usageError
+		if !errors.As(err, &ue) || !strings.Contains(err.Error(), "--top-up") {
+			t.Errorf("draw --top-up %s: %v, want a usage error naming --top-up", n, err)
+		}
+	}
+	if after, _ := os.ReadFile(drawPath); !bytes.Equal(before, after) {
+		t.Fatal("a refused top-up changed the draw")
+	}
+	if _, err := run(t, "--study", st, "tune"); err != nil {
+		t.Fatalf("tune on a study of one generation: %v", err)
+	}
+	if _, err := run(t, "--study", st, "draw", "--replace", "--n", "40", "--seed", "77"); err != nil {
+		t.Fatal(err)
+	}
+	_, err := run(t, "--study", st, "tune")
+	var se *study.StaleError
+	if !errors.As(err, &se) || se.Stage != "packets" || !strings.Contains(err.Error(), "quorate packets --replace") {
+		t.Fatalf("tune after draw --replace: %v, want a refusal naming packets and quorate packets --replace", err)
+	}
+	for _, cmd := range [][]string{{"export", "--to", filepath.Join(t.TempDir(), "x")}, {"merge", drawPath}} {
+		if _, err := run(t, append([]string{"--study", st}, cmd...)...); !errors.As(err, &se) {
+			t.Errorf("%s after draw --replace: %v, want a refusal", cmd[0], err)
+		}
+	}
+	if _, err := run(t, "--study", st, "--force", "tune"); err != nil {
+		t.Errorf("tune --force: %v", err)
+	}
+}
+
+// Two writers at once once left a consensus missing a return; the second waits, then
+// refuses with the holder's pid and command.
+func TestSecondWriterRefused(t *testing.T) {
+	st := demoStudy(t)
+	s, err := study.Open(st)
+	if err != nil {
+		t.Fatal(err)
+	}
+	old := study.LockWait
+	study.LockWait = 200 * time.Millisecond
+	defer func() { study.LockWait = old }()
+	unlock, err := s.Lock([]string{"quorate", "merge", "held.json"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = run(t, "--study", st, "tune")
+	unlock()
+	if !errors.Is(err, study.ErrLocked) || !strings.Contains(err.Error(), "quorate merge held.json") {
+		t.Fatalf("tune while merge holds the study: %v, want a refusal naming the holder", err)
+	}
+	if _, err := run(t, "--study", st, "tune"); err != nil {
+		t.Errorf("tune after the holder finished: %v", err)
+	}
+}
