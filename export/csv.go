@@ -14,12 +14,26 @@ import (
 type cellFormat struct {
 	missing string
 	listSep string
+	// quoteFormulas prefixes text that a spreadsheet would run as a formula
+	// (FormulaSafe).
+	quoteFormulas bool
 }
 
 var (
-	csvCells  = cellFormat{missing: "", listSep: ";"}
-	bidsCells = cellFormat{missing: "n/a", listSep: ";"}
+	csvCells  = cellFormat{missing: "", listSep: ";", quoteFormulas: true}
+	bidsCells = cellFormat{missing: "n/a", listSep: ";", quoteFormulas: true}
 )
+
+// FormulaSafe returns text that a spreadsheet shows as text: a cell beginning with
+// = + - @, a tab or a carriage return is prefixed with a single quote, as the OWASP
+// guidance on CSV injection advises (owasp.org, "CSV Injection"). Only text columns
+// pass through it; numbers (a negative onset) are written as they are.
+func FormulaSafe(s string) string {
+	if s != "" && strings.ContainsRune("=+-@\t\r", rune(s[0])) {
+		return "'" + s
+	}
+	return s
+}
 
 // cell formats one value. Numbers use the shortest decimal that reads back to the same
 // value, with a dot (strconv 'g', −1); NaN is missing.
@@ -35,6 +49,9 @@ func (cf cellFormat) cell(v reflect.Value) string {
 	}
 	switch v.Kind() {
 	case reflect.String:
+		if cf.quoteFormulas {
+			return FormulaSafe(v.String())
+		}
 		return v.String()
 	case reflect.Bool:
 		return strconv.FormatBool(v.Bool())

@@ -38,7 +38,10 @@ type OPDecision struct {
 type Options struct {
 	To      string // the export folder
 	Format  string // parquet, csv or bids
-	Replace bool   // move an existing non-empty folder aside (never deleted)
+	Replace bool   // move an earlier export (a folder holding MarkerFile) aside; never deleted
+	// Protect are folders an export never moves or writes into: the archive roots
+	// and the study.
+	Protect []string
 
 	Epochs       bool
 	EpochWindowS float64 // window length in seconds, centred on the event; 0 → 10

@@ -53,11 +53,23 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		return nil, err
 	}
 
-	dir := filepath.Clean(o.To)
-	res := &Result{Dir: dir, Events: len(events), Ratings: len(ratings), Recordings: len(recordings)}
-	if res.MovedAside, err = prepareDir(dir, o.Replace); err != nil {
+	res := &Result{Dir: filepath.Clean(o.To), Events: len(events), Ratings: len(ratings), Recordings: len(recordings)}
+	st, err := stage(res.Dir, o.Replace, o.Protect)
+	if err != nil {
 		return nil, err
 	}
+	if err := write(ctx, &o, st.tmp, kind, events, ratings, recordings, res); err != nil {
+		st.abort()
+		return nil, err
+	}
+	if res.MovedAside, err = st.commit(o.Format); err != nil {
+		return nil, err
+	}
+	return res, nil
+}
+
+// write writes every file of the export into dir.
+func write(ctx context.Context, o *Options, dir string, kind montage.Kind, events []EventRow, ratings []RatingRow, recordings []RecordingRow, res *Result) (err error) {
 	put := func(name string, fn func(io.Writer) error) error {
 		res.Files = append(res.Files, name)
 		return atomicfile.Write(filepath.Join(dir, name), 0o644, fn)
@@ -91,11 +103,11 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	case "bids":
 		dict.Tables = BIDSTables(o.Epochs)
 		var files []string
-		files, err = writeBIDS(dir, &o, events)
+		files, err = writeBIDS(dir, o, events)
 		res.Files = append(res.Files, files...)
 	}
 	if err != nil {
-		return nil, err
+		return err
 	}
 	if o.Epochs {
 		dict.EpochWindowS, dict.EpochMontage = o.EpochWindowS, kind.String()
@@ -108,23 +120,23 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		var st epochStats
 		err = put(EpochsFile, func(w io.Writer) error {
 			var err error
-			st, err = writeEpochs(ctx, w, &o, kind, byRec, bar)
+			st, err = writeEpochs(ctx, w, o, kind, byRec, bar)
 			return err
 		})
 		bar.Finish()
 		if err != nil {
-			return nil, err
+			return err
 		}
 		res.Epochs, res.Padded = st.rows, st.padded
 	}
 	if err := put(DictionaryMD, func(w io.Writer) error { return writeDictionaryMD(w, dict) }); err != nil {
-		return nil, err
+		return err
 	}
 	if err := put(DictionaryJSON, func(w io.Writer) error { return writeSchemaJSON(w, dict) }); err != nil {
-		return nil, err
+		return err
 	}
 	sort.Strings(res.Files)
-	return res, nil
+	return nil
 }
 
 func firstErr(fns ...func() error) error {

@@ -162,7 +162,20 @@ func TestBadInput(t *testing.T) {
 	if !errors.As(err, &ne) {
 		t.Errorf("non-empty folder: %v", err)
 	}
+	// Replace moves only an earlier export: a folder without the marker stays.
 	o.Replace = true
+	var nx *NotExportError
+	if _, err := Run(context.Background(), o); !errors.As(err, &nx) {
+		t.Errorf("replace of a folder that is not an export: %v", err)
+	}
+	if b, err := os.ReadFile(filepath.Join(o.To, "notes.txt")); err != nil || string(b) != "keep me" {
+		t.Errorf("the folder was touched: %v", err)
+	}
+	o.To = filepath.Join(t.TempDir(), "y")
+	if _, err := Run(context.Background(), o); err != nil {
+		t.Fatal(err)
+	}
+	os.WriteFile(filepath.Join(o.To, "notes.txt"), []byte("keep me"), 0o644)
 	res, err := Run(context.Background(), o)
 	if err != nil {
 		t.Fatal(err)

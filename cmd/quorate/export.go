@@ -4,7 +4,9 @@ import (
 	"context"
 	"crypto/rand"
 	"encoding/json"
+	"errors"
 	"fmt"
+	"io/fs"
 	"math/big"
 	"os"
 	"sort"
@@ -77,19 +79,19 @@ offset kept in the study. --epochs adds the raw samples around each event.`,
 func runExport(g *globals, s *study.Study, f *exportFlags) error {
 	recs, err := archive.ReadIndex(s.Path(study.IndexDir, archive.IndexFile))
 	if err != nil {
-		return &export.MissingStepError{Table: "recordings", Command: "quorate scan"}
+		return missingOr(err, "recordings", "quorate scan")
 	}
 	rows, err := draw.ReadRows(s.Path(study.DrawDir, draw.DrawFile))
 	if err != nil {
-		return &export.MissingStepError{Table: "draw", Command: "quorate draw"}
+		return missingOr(err, "draw", "quorate draw")
 	}
 	ratings, err := merge.ReadRatings(s.Path(study.ConsensusDir, merge.RatingsFile))
 	if err != nil {
-		return &export.MissingStepError{Table: "ratings", Command: "quorate merge"}
+		return missingOr(err, "ratings", "quorate merge")
 	}
 	cons, err := merge.ReadConsensus(s.Path(study.ConsensusDir, merge.ConsensusFile))
 	if err != nil {
-		return &export.MissingStepError{Table: "consensus", Command: "quorate merge"}
+		return missingOr(err, "consensus", "quorate merge")
 	}
 	cands, err := candidate.ReadDir(s.Path(study.CandidatesDir))
 	if err != nil {
@@ -104,7 +106,7 @@ func runExport(g *globals, s *study.Study, f *exportFlags) error {
 		}
 	}
 	o := export.Options{To: f.to, Format: f.format, Replace: f.replace, Epochs: f.epochs, EpochWindowS: f.window,
-		EpochMontage: f.montage, ShiftDates: f.shift, Comments: f.notes, Recordings: recs, ArchiveRoots: s.Config.Archive.Roots,
+		EpochMontage: f.montage, ShiftDates: f.shift, Protect: append([]string{s.Dir}, s.Config.Archive.Roots...), Comments: f.notes, Recordings: recs, ArchiveRoots: s.Config.Archive.Roots,
 		Candidates: cands, Draw: info, Ratings: ratings, Consensus: cons, Progress: g.progress}
 	opPath := s.Path(study.TuningDir, report.PointFile)
 	if op, err := report.ReadOperatingPoint(opPath); err == nil {
@@ -156,16 +158,31 @@ func runExport(g *globals, s *study.Study, f *exportFlags) error {
 	return nil
 }
 
+// missingOr names the step that makes a table when its file is absent; any other read
+// error (a damaged file) is reported as it is, not as a missing step.
+func missingOr(err error, table, command string) error {
+	if errors.Is(err, fs.ErrNotExist) {
+		return &export.MissingStepError{Table: table, Command: command}
+	}
+	return err
+}
+
 // dateShifts returns each subject's offset in days, making new ones (uniform in
 // −1095…−365 days, from the operating system's random source) for subjects that have none
 // and saving them in the study.
 func dateShifts(s *study.Study, recs []archive.Recording) (map[string]int, error) {
 	path := s.Path(dateShiftFile)
 	shifts := map[string]int{}
-	if b, err := os.ReadFile(path); err == nil {
+	// Only a file that is not there yet starts afresh: new offsets over old ones would
+	// make two exports of one study disagree on dates.
+	b, err := os.ReadFile(path)
+	switch {
+	case err == nil:
 		if err := json.Unmarshal(b, &shifts); err != nil {
-			return nil, fmt.Errorf("%s: %w", path, err)
+			return nil, fmt.Errorf("%s: %w (the offsets are not made again; restore the file from a backup)", path, err)
 		}
+	case !errors.Is(err, fs.ErrNotExist):
+		return nil, fmt.Errorf("reading the date offsets: %w (they are not made again)", err)
 	}
 	var subjects []string
 	for _, r := range recs {

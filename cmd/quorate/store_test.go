@@ -124,3 +124,34 @@ func TestSecondWriterRefused(t *testing.T) {
 		t.Errorf("tune after the holder finished: %v", err)
 	}
 }
+
+// export reported a damaged table as a missing step, and a date-offset file it could
+// not read was replaced by new offsets; --to the study --replace moved the study aside.
+func TestExportRefusals(t *testing.T) {
+	st := demoStudy(t)
+	out := filepath.Join(t.TempDir(), "x")
+	if _, err := run(t, "--study", st, "export", "--to", st, "--replace"); err == nil || !strings.Contains(err.Error(), "never touches") {
+		t.Errorf("export --to the study --replace: %v, want a refusal", err)
+	}
+	if _, err := os.Stat(filepath.Join(st, study.ConfigFile)); err != nil {
+		t.Fatal("the study moved:", err)
+	}
+	shifts := filepath.Join(st, dateShiftFile)
+	os.Remove(shifts)
+	if err := os.Mkdir(shifts, 0o700); err != nil { // present but unreadable as a file
+		t.Fatal(err)
+	}
+	if _, err := run(t, "--study", st, "export", "--to", out, "--shift-dates"); err == nil || !strings.Contains(err.Error(), "not made again") {
+		t.Errorf("unreadable date offsets: %v, want a refusal", err)
+	}
+	if fi, err := os.Stat(shifts); err != nil || !fi.IsDir() {
+		t.Error("the date offsets were replaced")
+	}
+	drawPath := filepath.Join(st, study.DrawDir, draw.DrawFile)
+	b, _ := os.ReadFile(drawPath)
+	os.WriteFile(drawPath, b[:len(b)/2], 0o644)
+	_, err := run(t, "--study", st, "--force", "export", "--to", out)
+	if err == nil || strings.Contains(err.Error(), "run quorate draw") || !strings.Contains(err.Error(), drawPath) {
+		t.Errorf("damaged draw: %v, want the read error naming %s", err, drawPath)
+	}
+}
