@@ -140,7 +140,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	}
 
 	step("the simulated panel rates its packets")
-	recs, err := archive.ReadIndex(s.Path(study.IndexDir, archive.IndexFile))
+	recs, err := readIndex(s)
 	if err != nil {
 		return err
 	}

@@ -18,7 +18,6 @@ import (
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/export/report"
 	"github.com/quorate-eeg/quorate/panel/consensus"
-	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 	"github.com/quorate-eeg/quorate/sampling/synth"
 )
@@ -129,7 +128,10 @@ func TestDemoEndToEnd(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	recs, _ := archive.ReadIndex(s.Path(study.IndexDir, archive.IndexFile))
+	recs, err := readIndex(s)
+	if err != nil {
+		t.Fatal(err)
+	}
 	cands, _ := candidate.ReadDir(s.Path(study.CandidatesDir))
 	truthByPath := map[string][]synth.Event{}
 	for _, r := range recs {

@@ -69,7 +69,7 @@ func parseShard(s string) (int, int, error) {
 
 func runDetect(ctx context.Context, g *globals, s *study.Study, shard, shards int) error {
 	indexPath := s.Path(study.IndexDir, archive.IndexFile)
-	recs, err := archive.ReadIndex(indexPath)
+	recs, err := readIndex(s)
 	if err != nil {
 		return fmt.Errorf("no archive index yet (run quorate scan first): %w", err)
 	}

@@ -77,7 +77,7 @@ offset kept in the study. --epochs adds the raw samples around each event.`,
 }
 
 func runExport(g *globals, s *study.Study, f *exportFlags) error {
-	recs, err := archive.ReadIndex(s.Path(study.IndexDir, archive.IndexFile))
+	recs, err := readIndex(s)
 	if err != nil {
 		return missingOr(err, "recordings", "quorate scan")
 	}

@@ -74,7 +74,7 @@ func runImport(g *globals, s *study.Study, f *importFlags, files []string) error
 		}
 	}
 	indexPath := s.Path(study.IndexDir, archive.IndexFile)
-	recs, err := archive.ReadIndex(indexPath)
+	recs, err := readIndex(s)
 	if err != nil {
 		return fmt.Errorf("no archive index yet (run quorate scan first): %w", err)
 	}

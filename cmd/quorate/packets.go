@@ -110,7 +110,7 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 		return fmt.Errorf("no draw yet (run quorate draw first): %w", err)
 	}
 	indexPath := s.Path(study.IndexDir, archive.IndexFile)
-	recs, err := archive.ReadIndex(indexPath)
+	recs, err := readIndex(s)
 	if err != nil {
 		return err
 	}

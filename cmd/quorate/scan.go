@@ -44,7 +44,7 @@ func runScan(ctx context.Context, g *globals, s *study.Study, roots []string) er
 		roots = s.Config.Archive.Roots
 	}
 	res, err := archive.Run(ctx, archive.Options{
-		Roots: roots, Secret: secret, IndexDir: s.Path(study.IndexDir), Workers: g.workers,
+		Roots: roots, Secret: secret, IndexDir: s.Path(study.IndexDir), PathsFile: s.Path(study.PathsFile), Workers: g.workers,
 		Progress: g.progress,
 	})
 	if err != nil {
@@ -62,6 +62,16 @@ func runScan(ctx context.Context, g *globals, s *study.Study, roots []string) er
 	fmt.Fprintf(g.stdout, "Indexed %d recordings (%.1f h; %d unchanged since the last scan); %d problem(s) in %s.\n",
 		len(res.Recordings), hours, res.Reused, len(res.Problems), s.Path(study.IndexDir, archive.ProblemsFile))
 	return g.finish(res.Warnings)
+}
+
+// readIndex reads the archive index with each recording's archive path joined back
+// from the study's private paths file, for the stages that read the archive.
+func readIndex(s *study.Study) ([]archive.Recording, error) {
+	recs, err := archive.ReadIndex(s.Path(study.IndexDir, archive.IndexFile))
+	if err != nil {
+		return nil, err
+	}
+	return archive.AttachPaths(recs, s.Path(study.PathsFile))
 }
 
 // progress makes a bar unless --quiet is set or standard error is not a terminal.

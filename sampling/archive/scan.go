@@ -25,6 +25,9 @@ type Options struct {
 	Roots    []string // archive folders, searched recursively
 	Secret   []byte   // the study secret, keys subject keys
 	IndexDir string   // where recordings.parquet and problems.csv go
+	// PathsFile, when set, receives the recordings' archive paths (WritePaths) and
+	// recordings.parquet keeps none; when empty the index keeps them.
+	PathsFile string
 	Workers  int
 	// Progress makes a bar for total files; nil shows none.
 	Progress func(total int, desc string) progress.Bar
@@ -57,6 +60,17 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	if len(o.Roots) == 0 {
 		return nil, errors.New("no archive roots: add them to study.yaml (archive.roots) or pass --archive")
 	}
+	// A root that is not there (an unmounted share) would index as empty and wipe the
+	// index: refuse and leave the index as it was.
+	for _, r := range o.Roots {
+		st, err := os.Stat(r)
+		if err != nil {
+			return nil, &RootError{Root: r, Err: err}
+		}
+		if !st.IsDir() {
+			return nil, &RootError{Root: r, Err: errors.New("not a folder")}
+		}
+	}
 	if o.Workers < 1 {
 		o.Workers = 1
 	}
@@ -73,6 +87,11 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	}
 	prev := map[string]Recording{}
 	if old, err := ReadIndex(filepath.Join(o.IndexDir, IndexFile)); err == nil {
+		if o.PathsFile != "" {
+			if old, err = AttachPaths(old, o.PathsFile); err != nil {
+				old = nil // read every file again
+			}
+		}
 		for _, r := range old {
 			prev[key(int(r.Root), r.Path)] = r
 		}
@@ -145,7 +164,14 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	sort.Slice(problems, func(i, j int) bool { return problems[i].File < problems[j].File })
 	res.Problems = problems
 	res.Warnings += len(problems)
-	if err := WriteIndex(filepath.Join(o.IndexDir, IndexFile), res.Recordings); err != nil {
+	stored := res.Recordings
+	if o.PathsFile != "" {
+		if err := WritePaths(o.PathsFile, res.Recordings); err != nil {
+			return nil, err
+		}
+		stored = withoutPaths(res.Recordings)
+	}
+	if err := WriteIndex(filepath.Join(o.IndexDir, IndexFile), stored); err != nil {
 		return nil, err
 	}
 	if err := WriteProblems(filepath.Join(o.IndexDir, ProblemsFile), problems); err != nil {
@@ -153,6 +179,18 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	}
 	return res, nil
 }
+
+// RootError reports an archive root that cannot be scanned.
+type RootError struct {
+	Root string
+	Err  error
+}
+
+func (e *RootError) Error() string {
+	return fmt.Sprintf("archive root %s: %v; nothing was scanned and the index is left as it was", e.Root, e.Err)
+}
+
+func (e *RootError) Unwrap() error { return e.Err }
 
 func key(root int, rel string) string { return fmt.Sprintf("%d\x00%s", root, rel) }
 
@@ -177,10 +215,27 @@ func walk(ri int, root string, fsys fs.FS) ([]found, []Problem) {
 		if d.IsDir() && p != "." && strings.HasPrefix(d.Name(), ".") {
 			return fs.SkipDir // hidden folders, e.g. a study kept inside the archive
 		}
-		if !d.Type().IsRegular() {
+		var info fs.FileInfo
+		switch {
+		case d.Type()&fs.ModeSymlink != 0:
+			// A linked recording is followed, a linked folder is not (a loop would
+			// never end); neither is passed over without a word.
+			info, err = fs.Stat(fsys, p)
+			switch {
+			case err != nil:
+				probs = append(probs, Problem{File: filepath.ToSlash(abs), Offset: -1, Reason: "symbolic link that cannot be followed: " + errReason(err)})
+				return nil
+			case info.IsDir():
+				probs = append(probs, Problem{File: filepath.ToSlash(abs), Offset: -1, Reason: "symbolic link to a folder, not followed: add the folder as an archive root instead"})
+				return nil
+			case !info.Mode().IsRegular():
+				return nil
+			}
+		case !d.Type().IsRegular():
 			return nil
+		default:
+			info, err = d.Info()
 		}
-		info, err := d.Info()
 		if err != nil {
 			probs = append(probs, Problem{File: filepath.ToSlash(abs), Offset: -1, Reason: "cannot stat: " + errReason(err)})
 			return nil
@@ -236,7 +291,7 @@ func index(f found, secret []byte) (*Recording, *Problem) {
 	if err != nil {
 		var fe *edf.FieldError
 		if errors.As(err, &fe) {
-			return nil, prob(fe.Field, fe.Offset, err.Error())
+			return nil, prob(fe.Field, fe.Offset, withheld(fe, err))
 		}
 		return nil, prob("", -1, err.Error())
 	}
@@ -271,6 +326,21 @@ func index(f found, secret []byte) (*Recording, *Problem) {
 		rec.Warnings = append(rec.Warnings, "patient identification is empty or anonymised: every such recording shares one subject key")
 	}
 	return rec, nil
+}
+
+// identifying are the EDF header fields that carry a patient's identification (EDF+:
+// code, sex, birth date, name; the recording field: admin code, technician, equipment).
+var identifying = map[string]bool{"local patient identification": true, "local recording identification": true}
+
+// withheld is the reason a field failed, without the field's content when the field
+// identifies the patient: problems.csv must not become a list of names.
+func withheld(fe *edf.FieldError, err error) string {
+	if !identifying[fe.Field] {
+		return err.Error()
+	}
+	c := *fe
+	c.Value = "(content withheld: it identifies the patient)"
+	return c.Error()
 }
 
 func nonNil(s []string) []string {

@@ -3,6 +3,7 @@ package archive
 import (
 	"context"
 	"encoding/csv"
+	"errors"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -198,5 +199,105 @@ func TestSubjectKeyFoldsSpacingAndCase(t *testing.T) {
 	c := SubjectKey([]byte("another study's secret, 32 bytes"), "MCH-0001 F 01-JAN-1970 Fictional_Alba")
 	if a != b || a == c || len(a) != 20 {
 		t.Fatalf("keys %q %q %q", a, b, c)
+	}
+}
+
+// A non-ASCII patient field once put the raw field (name, birth date) into
+// problems.csv; the field and byte offset are listed, the content is withheld.
+func TestProblemsWithholdIdentification(t *testing.T) {
+	arch := t.TempDir()
+	p := filepath.Join(arch, "r.edf")
+	writeEDF(t, p, "MCH-0009 F 03-MAR-1980 Fictional_Zoe", 2, 0)
+	b, _ := os.ReadFile(p)
+	copy(b[8+22:], "Fictïonal_Zoë") // non-ASCII bytes in the patient field
+	os.WriteFile(p, b, 0o644)
+	idx := t.TempDir()
+	if _, err := Run(context.Background(), Options{Roots: []string{arch}, Secret: secret, IndexDir: idx}); err != nil {
+		t.Fatal(err)
+	}
+	raw, _ := os.ReadFile(filepath.Join(idx, ProblemsFile))
+	probs := readProblems(t, filepath.Join(idx, ProblemsFile))
+	if len(probs) != 1 || probs[0][1] != "local patient identification" || probs[0][2] != "8" {
+		t.Fatalf("problems %q, want the patient field at byte 8", probs)
+	}
+	for _, leak := range []string{"Fict", "1980", "MCH-0009", "Zo"} {
+		if strings.Contains(string(raw), leak) {
+			t.Errorf("problems.csv carries %q: %s", leak, raw)
+		}
+	}
+}
+
+// A rescan with the archive root missing (an unmounted share) once emptied the index.
+func TestScanRefusesMissingRoot(t *testing.T) {
+	arch := t.TempDir()
+	writeEDF(t, filepath.Join(arch, "a.edf"), "X X X X", 2, 0)
+	idx := t.TempDir()
+	o := Options{Roots: []string{arch}, Secret: secret, IndexDir: idx}
+	if _, err := Run(context.Background(), o); err != nil {
+		t.Fatal(err)
+	}
+	before, _ := os.ReadFile(filepath.Join(idx, IndexFile))
+	o.Roots = []string{filepath.Join(arch, "unmounted")}
+	_, err := Run(context.Background(), o)
+	var re *RootError
+	if !errors.As(err, &re) {
+		t.Fatalf("missing root: %v, want a RootError", err)
+	}
+	if after, _ := os.ReadFile(filepath.Join(idx, IndexFile)); string(after) != string(before) {
+		t.Error("the index changed")
+	}
+}
+
+// A symbolic link to a recording was once passed over silently: it is followed; a
+// link to a folder or to nothing is listed as a problem.
+func TestScanSymlinks(t *testing.T) {
+	arch, elsewhere := t.TempDir(), t.TempDir()
+	writeEDF(t, filepath.Join(elsewhere, "real.edf"), "X X X X", 2, 0)
+	os.Symlink(filepath.Join(elsewhere, "real.edf"), filepath.Join(arch, "linked.edf"))
+	os.Symlink(elsewhere, filepath.Join(arch, "folder-link"))
+	os.Symlink(filepath.Join(elsewhere, "gone.edf"), filepath.Join(arch, "dangling.edf"))
+	idx := t.TempDir()
+	res, err := Run(context.Background(), Options{Roots: []string{arch}, Secret: secret, IndexDir: idx})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(res.Recordings) != 1 || res.Recordings[0].Path != "linked.edf" {
+		t.Errorf("recordings %+v, want the linked one", res.Recordings)
+	}
+	got := map[string]string{}
+	for _, p := range res.Problems {
+		got[filepath.Base(p.File)] = p.Reason
+	}
+	if !strings.Contains(got["folder-link"], "link to a folder") || !strings.Contains(got["dangling.edf"], "cannot be followed") {
+		t.Errorf("problems %q", got)
+	}
+}
+
+// With a paths file, recordings.parquet keeps no archive path; the paths go to the
+// private file and are joined back for the stages that read the archive.
+func TestPathsKeptApart(t *testing.T) {
+	arch := t.TempDir()
+	writeEDF(t, filepath.Join(arch, "Fictional_Alba", "a.edf"), "X X X X", 2, 0)
+	idx := t.TempDir()
+	paths := filepath.Join(t.TempDir(), "paths.json")
+	o := Options{Roots: []string{arch}, Secret: secret, IndexDir: idx, PathsFile: paths}
+	if _, err := Run(context.Background(), o); err != nil {
+		t.Fatal(err)
+	}
+	raw, _ := os.ReadFile(filepath.Join(idx, IndexFile))
+	if strings.Contains(string(raw), "Fictional_Alba") {
+		t.Error("recordings.parquet carries the archive path")
+	}
+	if st, err := os.Stat(paths); err != nil || st.Mode().Perm() != 0o600 {
+		t.Fatalf("paths file: %v", err)
+	}
+	recs, _ := ReadIndex(filepath.Join(idx, IndexFile))
+	recs, err := AttachPaths(recs, paths)
+	if err != nil || recs[0].Path != "Fictional_Alba/a.edf" {
+		t.Fatalf("attached %+v, %v", recs, err)
+	}
+	res, err := Run(context.Background(), o)
+	if err != nil || res.Reused != 1 {
+		t.Errorf("rescan: %+v %v, want the unchanged file reused", res, err)
 	}
 }

@@ -16,6 +16,9 @@ import (
 const (
 	ConfigFile     = "study.yaml"
 	SecretFile     = ".quorate/secret"
+	// PathsFile keeps each recording's archive path (names often carry a patient's
+	// name): private to the study, like the secret, and read by no export.
+	PathsFile      = ".quorate/paths.json"
 	ProvenanceFile = "provenance.jsonl"
 	IndexDir       = "index"
 	CandidatesDir  = "candidates"
