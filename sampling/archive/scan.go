@@ -28,7 +28,7 @@ type Options struct {
 	// PathsFile, when set, receives the recordings' archive paths (WritePaths) and
 	// recordings.parquet keeps none; when empty the index keeps them.
 	PathsFile string
-	Workers  int
+	Workers   int
 	// Progress makes a bar for total files; nil shows none.
 	Progress func(total int, desc string) progress.Bar
 

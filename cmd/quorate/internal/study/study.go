@@ -14,8 +14,8 @@ import (
 
 // The fixed places of a study's artefacts, relative to the study folder.
 const (
-	ConfigFile     = "study.yaml"
-	SecretFile     = ".quorate/secret"
+	ConfigFile = "study.yaml"
+	SecretFile = ".quorate/secret"
 	// PathsFile keeps each recording's archive path (names often carry a patient's
 	// name): private to the study, like the secret, and read by no export.
 	PathsFile      = ".quorate/paths.json"
