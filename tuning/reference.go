@@ -3,6 +3,7 @@ package tuning
 import (
 	"encoding/csv"
 	"errors"
+	"fmt"
 	"io"
 	"math"
 	"os"
@@ -53,12 +54,22 @@ func ReadExternalReference(path string, eventIDs []string, subjectOf map[string]
 		return nil, err
 	}
 	defer f.Close()
-	r := csv.NewReader(f)
-	r.FieldsPerRecord = 2
+	if st, err := f.Stat(); err == nil && st.Size() > MaxReferenceBytes {
+		return nil, &ReferenceError{File: path, Field: "file", Msg: fmt.Sprintf("%d bytes, more than the %d a reference table may have", st.Size(), MaxReferenceBytes)}
+	}
+	r := csv.NewReader(io.LimitReader(f, MaxReferenceBytes))
+	r.FieldsPerRecord = -1
 	r.TrimLeadingSpace = true
 	header, err := r.Read()
 	if err != nil {
 		return nil, csvError(path, err, "header")
+	}
+	if len(header) != 2 {
+		msg := fmt.Sprintf("%d columns, want 2 separated by commas (event_id,reference or subject_key,reference)", len(header))
+		if d := otherDelimiter(header); d != "" {
+			msg += "; the header seems separated by " + d + ": save the table as comma-separated CSV"
+		}
+		return nil, &ReferenceError{File: path, Row: 1, Field: "header", Msg: msg}
 	}
 	key := strings.ToLower(strings.TrimSpace(strings.TrimPrefix(header[0], "\ufeff")))
 	if key != "event_id" && key != "subject_key" {
@@ -87,6 +98,9 @@ func ReadExternalReference(path string, eventIDs []string, subjectOf map[string]
 			return nil, csvError(path, err, key)
 		}
 		row, _ := r.FieldPos(0)
+		if len(rec) != 2 {
+			return nil, &ReferenceError{File: path, Row: row, Field: key, Msg: fmt.Sprintf("%d fields, want 2", len(rec))}
+		}
 		id := strings.TrimSpace(rec[0])
 		if id == "" {
 			return nil, &ReferenceError{File: path, Row: row, Field: key, Msg: "empty id"}
@@ -113,6 +127,25 @@ func ReadExternalReference(path string, eventIDs []string, subjectOf map[string]
 		return nil, &UnknownIDsError{File: path, Column: key, IDs: unknown}
 	}
 	return out, nil
+}
+
+// MaxReferenceBytes bounds an external reference table: one row per event or subject
+// is far below it, and a file far larger is not a reference table.
+const MaxReferenceBytes = 64 << 20
+
+// otherDelimiter names the separator a one-column header seems to use instead of a
+// comma: spreadsheets in many locales save "CSV" with semicolons.
+func otherDelimiter(header []string) string {
+	if len(header) != 1 {
+		return ""
+	}
+	switch {
+	case strings.Contains(header[0], ";"):
+		return "semicolons (;)"
+	case strings.Contains(header[0], "\t"):
+		return "tabs"
+	}
+	return ""
 }
 
 func parseReference(s string) (int8, bool) {

@@ -25,6 +25,9 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	if !(o.Level > 0 && o.Level < 1) {
 		return nil, &InputError{Index: -1, Field: "Level", Msg: fmt.Sprintf("confidence level %v outside (0,1)", o.Level)}
 	}
+	if o.Folds < 0 || o.Folds == 1 {
+		return nil, &InputError{Index: -1, Field: "Folds", Msg: fmt.Sprintf("%d folds: want 0 (the default, 5) or at least 2", o.Folds)}
+	}
 	if o.Folds == 0 {
 		o.Folds = 5
 	}

@@ -50,6 +50,12 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 	if err != nil {
 		return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
 	}
+	if err := checkQuorum(s.Config.Panel.Quorum, m); err != nil {
+		return err
+	}
+	if err := checkSizes(files, maxReturnBytes); err != nil {
+		return err
+	}
 	if m.Study != s.Config.Study.ID {
 		return fmt.Errorf("%s belongs to study %s, not to this study (%s)", s.Path(study.PacketsDir, "manifest.json"), m.Study, s.Config.Study.ID)
 	}

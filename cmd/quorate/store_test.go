@@ -155,3 +155,24 @@ func TestExportRefusals(t *testing.T) {
 		t.Errorf("damaged draw: %v, want the read error naming %s", err, drawPath)
 	}
 }
+
+// A quorum above the panel once left every event undecided without a word; a return of
+// hundreds of megabytes was stored.
+func TestMergeRefusesQuorumAndSize(t *testing.T) {
+	st := demoStudy(t)
+	y := filepath.Join(st, study.ConfigFile)
+	b, _ := os.ReadFile(y)
+	os.WriteFile(y, bytes.Replace(b, []byte("quorum: 2"), []byte("quorum: 99"), 1), 0o644)
+	big := filepath.Join(t.TempDir(), "big.json")
+	os.WriteFile(big, []byte("{}"), 0o644)
+	if _, err := run(t, "--study", st, "merge", big); err == nil || !strings.Contains(err.Error(), "panel.quorum is 99") {
+		t.Errorf("quorum 99: %v", err)
+	}
+	os.WriteFile(y, b, 0o644)
+	if err := os.Truncate(big, maxReturnBytes+1); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := run(t, "--study", st, "merge", big); err == nil || !strings.Contains(err.Error(), "more than the") {
+		t.Errorf("oversized return: %v", err)
+	}
+}

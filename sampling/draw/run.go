@@ -72,6 +72,9 @@ func Run(o RunOptions) (*RunResult, error) {
 	if o.TopUp < 0 {
 		return nil, fmt.Errorf("top-up: got %d events, want at least 1", o.TopUp)
 	}
+	if o.Controls < 0 || o.ControlEpochS < 0 || o.ControlDistS < 0 {
+		return nil, fmt.Errorf("background controls: got %d epochs of %g s at %g s from candidates, want numbers ≥ 0", o.Controls, o.ControlEpochS, o.ControlDistS)
+	}
 	out := filepath.Join(o.OutDir, DrawFile)
 	_, statErr := os.Stat(out)
 	exists := statErr == nil

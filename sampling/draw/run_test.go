@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"github.com/quorate-eeg/quorate/sampling/archive"
@@ -173,5 +174,16 @@ func TestRunRefusesNegativeTopUp(t *testing.T) {
 	}
 	if m, _ := filepath.Glob(filepath.Join(dir, "draw.*-1.parquet")); len(m) != 0 {
 		t.Errorf("a refused top-up left %v", m)
+	}
+}
+
+// Negative controls were once taken as none, silently.
+func TestRunRefusesNegativeControls(t *testing.T) {
+	cands, recs := runFixture()
+	specs, _ := ParseStrata("region")
+	o := RunOptions{Candidates: cands, Recordings: recs, OutDir: t.TempDir(), Controls: -5,
+		Design: Design{Strata: specs, Alloc: Allocation{Method: Proportional, N: 30}, Seed: 3}}
+	if _, err := Run(o); err == nil || !strings.Contains(err.Error(), "controls") {
+		t.Errorf("controls -5: %v", err)
 	}
 }

@@ -2,6 +2,8 @@ package study
 
 import (
 	"bytes"
+	"errors"
+	"io"
 	"fmt"
 	"os"
 	"strings"
@@ -57,6 +59,9 @@ type Config struct {
 	Seed uint64 `yaml:"seed"`
 }
 
+// MaxConfigBytes bounds study.yaml: the protocol is a page of settings.
+const MaxConfigBytes = 1 << 20
+
 // ConfigError reports a study.yaml that cannot be used, with the field at fault.
 type ConfigError struct {
 	File  string
@@ -76,10 +81,16 @@ func ReadConfig(path string) (*Config, error) {
 	if err != nil {
 		return nil, err
 	}
+	if len(b) > MaxConfigBytes {
+		return nil, fmt.Errorf("%s: %d bytes, more than the %d a study protocol may have", path, len(b), MaxConfigBytes)
+	}
 	var c Config
 	dec := yaml.NewDecoder(bytes.NewReader(b))
 	dec.KnownFields(true)
 	if err := dec.Decode(&c); err != nil {
+		if errors.Is(err, io.EOF) {
+			return nil, fmt.Errorf("%s is empty: it should hold the study protocol that quorate init writes (restore it from a backup, or start a new study)", path)
+		}
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
 	return &c, c.check(path)
@@ -110,6 +121,32 @@ func (c *Config) check(path string) error {
 	}
 	if s := c.Panel.DuplicateShare; s < 0 || s > 0.5 {
 		return bad("panel.duplicate_share", fmt.Sprint(s), "a share between 0 and 0.5")
+	}
+	for _, f := range []struct {
+		name string
+		v    int
+	}{
+		{"draw.n", c.Draw.N}, {"draw.min_per_stratum", c.Draw.MinPerStratum}, {"draw.subject_cap", c.Draw.SubjectCap},
+		{"draw.controls", c.Draw.Controls}, {"tuning.folds", c.Tuning.Folds}, {"tuning.bootstrap", c.Tuning.Bootstrap},
+		{"panel.quorum", c.Panel.Quorum},
+	} {
+		if f.v < 0 {
+			return bad(f.name, fmt.Sprint(f.v), "a whole number ≥ 0")
+		}
+	}
+	if c.Tuning.Folds == 1 {
+		return bad("tuning.folds", "1", "0 (the default, 5) or at least 2: cross-validation needs two folds")
+	}
+	if n := len(c.Panel.Raters); n > 0 && c.Panel.Quorum > n {
+		return bad("panel.quorum", fmt.Sprint(c.Panel.Quorum), fmt.Sprintf("at most the %d raters of panel.raters", n))
+	}
+	for _, f := range []struct {
+		name string
+		v    float64
+	}{{"draw.control_epoch_s", c.Draw.ControlEpochS}, {"draw.control_min_distance_s", c.Draw.ControlDistS}, {"panel.window_s", c.Panel.WindowS}} {
+		if f.v < 0 || f.v != f.v {
+			return bad(f.name, fmt.Sprint(f.v), "a number of seconds ≥ 0")
+		}
 	}
 	switch {
 	case c.Tuning.Reference == "panel", c.Tuning.Reference == "dawid-skene",

@@ -128,3 +128,36 @@ func TestHashNamesUnreadable(t *testing.T) {
 		t.Errorf("absent path gave %+v", hs)
 	}
 }
+
+// An empty study.yaml once said only "EOF"; counts below zero and a quorum above the
+// panel were clamped without a word.
+func TestConfigRefusals(t *testing.T) {
+	s := newStudy(t)
+	p := s.Path(ConfigFile)
+	good, _ := os.ReadFile(p)
+	os.WriteFile(p, nil, 0o644)
+	if _, err := ReadConfig(p); err == nil || !strings.Contains(err.Error(), "is empty") {
+		t.Errorf("empty study.yaml: %v", err)
+	}
+	for _, c := range []struct{ from, to, field string }{
+		{"controls: 30", "controls: -5", "draw.controls"},
+		{"folds: 5", "folds: -3", "tuning.folds"},
+		{"folds: 5", "folds: 1", "tuning.folds"},
+		{"raters: []", "raters: [a, b, c]\n  quorum: 99", "panel.quorum"},
+		{"quorum: 2", "quorum: -1", "panel.quorum"},
+	} {
+		y := strings.Replace(string(good), c.from, c.to, 1)
+		if y == string(good) {
+			t.Fatalf("template lacks %q", c.from)
+		}
+		if c.field == "panel.quorum" && strings.Contains(c.to, "99") {
+			y = strings.Replace(y, "\n  quorum: 2", "", 1)
+		}
+		os.WriteFile(p, []byte(y), 0o644)
+		_, err := ReadConfig(p)
+		var ce *ConfigError
+		if !errors.As(err, &ce) || ce.Field != c.field {
+			t.Errorf("%s: %v, want a ConfigError on %s", c.to, err, c.field)
+		}
+	}
+}

@@ -1,0 +1,40 @@
+package main
+
+import (
+	"fmt"
+	"os"
+
+	"github.com/quorate-eeg/quorate/panel/packet"
+)
+
+// maxReturnBytes bounds a returned file: a packet's answers take kilobytes, and a file
+// of hundreds of megabytes is not a return (it would be stored for good, and read
+// whole).
+const maxReturnBytes = 32 << 20
+
+// checkSizes refuses files larger than limit bytes before any is read.
+func checkSizes(files []string, limit int64) error {
+	for _, f := range files {
+		st, err := os.Stat(f)
+		if err != nil {
+			continue // the merge reports it with the file's other problems
+		}
+		if st.Size() > limit {
+			return fmt.Errorf("%s: %d bytes, more than the %d a return may have; nothing was merged", f, st.Size(), limit)
+		}
+	}
+	return nil
+}
+
+// checkQuorum refuses a quorum no event can reach: more answers than the panel has
+// raters, which would leave every event without a decision.
+func checkQuorum(quorum int, m *packet.Manifest) error {
+	raters := map[string]bool{}
+	for _, p := range m.Packets {
+		raters[p.Rater] = true
+	}
+	if quorum > len(raters) {
+		return fmt.Errorf("study.yaml: panel.quorum is %d but the packets go to %d raters: no event could reach a decision; lower the quorum", quorum, len(raters))
+	}
+	return nil
+}
