@@ -3,8 +3,8 @@ package study
 import (
 	"bytes"
 	"errors"
-	"io"
 	"fmt"
+	"io"
 	"os"
 	"strings"
 
