@@ -1,11 +1,32 @@
 package main
 
 import (
+	"encoding/json"
+	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 
+	"github.com/quorate-eeg/quorate/panel/consensus"
 	"github.com/quorate-eeg/quorate/panel/packet"
 )
+
+// readAgreement reads the agreement summary the report quotes: absent is nil (the
+// report goes without it), unreadable or unparsable is an error, never dropped.
+func readAgreement(path string) (*consensus.Agreement, error) {
+	b, err := os.ReadFile(path)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, nil
+	}
+	if err != nil {
+		return nil, err
+	}
+	agr := &consensus.Agreement{}
+	if err := json.Unmarshal(b, agr); err != nil {
+		return nil, fmt.Errorf("%s: %w (run quorate merge again to rebuild it)", path, err)
+	}
+	return agr, nil
+}
 
 // maxReturnBytes bounds a returned file: a packet's answers take kilobytes, and a file
 // of hundreds of megabytes is not a return (it would be stored for good, and read

@@ -6,6 +6,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/draw"
@@ -62,6 +63,12 @@ func guard(g *globals, c *cobra.Command) {
 				return err
 			}
 			defer unlock()
+		}
+		if sh, _ := cmd.Flags().GetString("shard"); sh == "" {
+			// Under the lock no other writer is at work: what a killed one left goes.
+			if gone, _ := atomicfile.RemoveLeftovers(s.Dir); len(gone) > 0 && g.log != nil {
+				g.log.Info("removed temporary files of an interrupted run", "files", len(gone))
+			}
 		}
 		if checking[c.Name()] && !g.force {
 			if err := s.CheckFresh(c.Name()); err != nil {

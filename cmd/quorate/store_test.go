@@ -176,3 +176,20 @@ func TestMergeRefusesQuorumAndSize(t *testing.T) {
 		t.Errorf("oversized return: %v", err)
 	}
 }
+
+// tune once dropped an agreement.json it could not parse and reported without it; a
+// killed run's temporary files are removed by the next writer.
+func TestTuneAgreementAndLeftovers(t *testing.T) {
+	st := demoStudy(t)
+	left := filepath.Join(st, study.TuningDir, ".report.html.tmp-4242")
+	os.WriteFile(left, []byte("half"), 0o644)
+	agr := filepath.Join(st, study.ConsensusDir, "agreement.json")
+	b, _ := os.ReadFile(agr)
+	os.WriteFile(agr, b[:len(b)/2], 0o644)
+	if _, err := run(t, "--study", st, "--force", "tune"); err == nil || !strings.Contains(err.Error(), agr) {
+		t.Errorf("tune with a damaged agreement.json: %v, want an error naming it", err)
+	}
+	if _, err := os.Stat(left); err == nil {
+		t.Error("leftover temporary file kept")
+	}
+}

@@ -2,10 +2,8 @@ package main
 
 import (
 	"context"
-	"encoding/json"
 	"fmt"
 	"math"
-	"os"
 	"strings"
 	"time"
 
@@ -177,12 +175,9 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	if err != nil {
 		return err
 	}
-	var agr *consensus.Agreement
-	if b, err := os.ReadFile(s.Path(study.ConsensusDir, merge.AgreementJSON)); err == nil {
-		agr = &consensus.Agreement{}
-		if err := json.Unmarshal(b, agr); err != nil {
-			agr = nil
-		}
+	agr, err := readAgreement(s.Path(study.ConsensusDir, merge.AgreementJSON))
+	if err != nil {
+		return err
 	}
 	inputs := s.Hash(consPath, drawPath, indexPath, s.Path(study.CandidatesDir))
 	hashes := map[string]string{}

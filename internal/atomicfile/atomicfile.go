@@ -5,10 +5,13 @@ package atomicfile
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
+	"strings"
 )
 
 // Write creates or replaces path with what fn writes. On any error the target is left
@@ -89,4 +92,101 @@ func Create(path string, data []byte, perm os.FileMode) error {
 		return err
 	}
 	return os.Remove(name)
+}
+
+// isLeftover reports whether name is a temporary file or folder of this package (or
+// of WriteDir): ".NAME.tmp-DIGITS".
+func isLeftover(name string) bool {
+	i := strings.LastIndex(name, ".tmp-")
+	if !strings.HasPrefix(name, ".") || i < 1 || i+5 == len(name) {
+		return false
+	}
+	for _, c := range name[i+5:] {
+		if c < '0' || c > '9' {
+			return false
+		}
+	}
+	return true
+}
+
+// RemoveLeftovers removes, under root, the temporary files and folders that a writer
+// killed before its rename left behind, and returns their paths. Run it only while no
+// other writer works under root (under the study's lock).
+func RemoveLeftovers(root string) ([]string, error) {
+	var gone []string
+	err := filepath.WalkDir(root, func(p string, d os.DirEntry, err error) error {
+		if err != nil {
+			return nil // an unreadable folder holds nothing this package wrote
+		}
+		if p != root && isLeftover(d.Name()) {
+			if err := os.RemoveAll(p); err != nil {
+				return err
+			}
+			gone = append(gone, p)
+			if d.IsDir() {
+				return filepath.SkipDir
+			}
+		}
+		return nil
+	})
+	return gone, err
+}
+
+// WriteDir replaces the folder dir with one that fn fills, so that a reader sees the
+// old folder or the whole new one (or, for the instant between two renames, none),
+// never a mix of old and new files. fn writes into the folder it is given. Files of the
+// old folder that fn does not write are carried over.
+func WriteDir(dir string, fn func(tmp string) error) (err error) {
+	parent, base := filepath.Dir(dir), filepath.Base(dir)
+	if err := os.MkdirAll(parent, 0o755); err != nil {
+		return err
+	}
+	tmp, err := os.MkdirTemp(parent, "."+base+".tmp-")
+	if err != nil {
+		return err
+	}
+	defer func() {
+		if err != nil {
+			os.RemoveAll(tmp)
+		}
+	}()
+	if err := os.Chmod(tmp, 0o755); err != nil {
+		return err
+	}
+	if err := fn(tmp); err != nil {
+		return err
+	}
+	old, err := os.ReadDir(dir)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return os.Rename(tmp, dir)
+	case err != nil:
+		return err
+	}
+	for _, e := range old {
+		if _, err := os.Lstat(filepath.Join(tmp, e.Name())); errors.Is(err, fs.ErrNotExist) && !isLeftover(e.Name()) {
+			carry := os.Link
+			if e.IsDir() {
+				carry = os.Rename
+			}
+			if err := carry(filepath.Join(dir, e.Name()), filepath.Join(tmp, e.Name())); err != nil {
+				return err
+			}
+		}
+	}
+	aside, err := os.MkdirTemp(parent, "."+base+".tmp-")
+	if err != nil {
+		return err
+	}
+	if err := os.Remove(aside); err != nil {
+		return err
+	}
+	if err := os.Rename(dir, aside); err != nil {
+		return err
+	}
+	if err := os.Rename(tmp, dir); err != nil {
+		os.Rename(aside, dir)
+		return err
+	}
+	return os.RemoveAll(aside)
 }

@@ -49,3 +49,70 @@ func TestCreateNeverOverwrites(t *testing.T) {
 		t.Fatalf("mode %v, want read-only", st.Mode().Perm())
 	}
 }
+
+// A tuning run killed between its files once left a new operating point beside an old
+// report. WriteDir shows the old folder or the whole new one; a failed fill leaves the
+// old one as it was; files of the old folder that the new one lacks are kept.
+func TestWriteDir(t *testing.T) {
+	parent := t.TempDir()
+	dir := filepath.Join(parent, "tuning")
+	put := func(files map[string]string) func(string) error {
+		return func(tmp string) error {
+			for n, c := range files {
+				if err := os.WriteFile(filepath.Join(tmp, n), []byte(c), 0o644); err != nil {
+					return err
+				}
+			}
+			return nil
+		}
+	}
+	if err := WriteDir(dir, put(map[string]string{"point": "1", "report": "1", "notes": "mine"})); err != nil {
+		t.Fatal(err)
+	}
+	err := WriteDir(dir, func(tmp string) error {
+		os.WriteFile(filepath.Join(tmp, "point"), []byte("2"), 0o644)
+		return os.ErrDeadlineExceeded // killed before the report
+	})
+	if err == nil {
+		t.Fatal("failed fill reported no error")
+	}
+	for n, want := range map[string]string{"point": "1", "report": "1"} {
+		if b, _ := os.ReadFile(filepath.Join(dir, n)); string(b) != want {
+			t.Errorf("after a failed fill %s = %q, want %q", n, b, want)
+		}
+	}
+	if err := WriteDir(dir, put(map[string]string{"point": "3", "report": "3"})); err != nil {
+		t.Fatal(err)
+	}
+	for n, want := range map[string]string{"point": "3", "report": "3", "notes": "mine"} {
+		if b, _ := os.ReadFile(filepath.Join(dir, n)); string(b) != want {
+			t.Errorf("%s = %q, want %q", n, b, want)
+		}
+	}
+	if m, _ := filepath.Glob(filepath.Join(parent, ".*")); len(m) != 0 {
+		t.Errorf("left %v", m)
+	}
+}
+
+// Temporary files of a killed writer (".NAME.tmp-DIGITS") are removed; nothing else.
+func TestRemoveLeftovers(t *testing.T) {
+	root := t.TempDir()
+	keep := []string{"a.json", ".quorate", "x.tmp-1", ".b.tmp-", ".c.tmp-12x"}
+	gone := []string{".a.json.tmp-12345", "sub/.d.parquet.tmp-9", ".export.tmp-77"}
+	for _, p := range append(keep, gone...) {
+		p = filepath.Join(root, p)
+		os.MkdirAll(filepath.Dir(p), 0o755)
+		os.WriteFile(p, []byte("x"), 0o644)
+	}
+	os.Remove(filepath.Join(root, ".export.tmp-77"))
+	os.MkdirAll(filepath.Join(root, ".export.tmp-77", "inner"), 0o755)
+	got, err := RemoveLeftovers(root)
+	if err != nil || len(got) != len(gone) {
+		t.Fatalf("removed %v, %v; want %d", got, err, len(gone))
+	}
+	for _, p := range keep {
+		if _, err := os.Lstat(filepath.Join(root, p)); err != nil {
+			t.Errorf("%s removed", p)
+		}
+	}
+}
