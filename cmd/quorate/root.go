@@ -110,6 +110,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newPacketsCmd(g),
 		newMergeCmd(g),
 		newStatusCmd(g),
+		newCheckCmd(g),
 		newTuneCmd(g),
 		newExportCmd(g),
 		newDemoCmd(g),

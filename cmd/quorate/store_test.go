@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"errors"
 	"os"
 	"os/exec"
@@ -12,6 +13,7 @@ import (
 	"time"
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/sampling/draw"
 )
 
@@ -191,5 +193,84 @@ func TestTuneAgreementAndLeftovers(t *testing.T) {
 	}
 	if _, err := os.Stat(left); err == nil {
 		t.Error("leftover temporary file kept")
+	}
+}
+
+func TestMain(m *testing.M) {
+	code := m.Run()
+	if demoDir != "" {
+		os.RemoveAll(filepath.Dir(demoDir))
+	}
+	os.Exit(code)
+}
+
+// The same file merged twice at once once got two ledger entries; under the lock the
+// second merge waits and finds it stored.
+func TestConcurrentMergeOneEntry(t *testing.T) {
+	st := demoStudy(t)
+	inbox, _ := filepath.Glob(filepath.Join(filepath.Dir(st), "inbox", "*.json"))
+	if len(inbox) == 0 {
+		t.Fatal("demo inbox empty")
+	}
+	var v any
+	b, _ := os.ReadFile(inbox[0])
+	if err := json.Unmarshal(b, &v); err != nil {
+		t.Fatal(err)
+	}
+	again, _ := json.MarshalIndent(v, "", "   ") // the same answers, other bytes: a new return
+	f := filepath.Join(t.TempDir(), "again.json")
+	os.WriteFile(f, again, 0o644)
+	ledger := filepath.Join(st, study.ReturnsDir, merge.LedgerFile)
+	before, _ := merge.ReadLedger(ledger)
+	var wg sync.WaitGroup
+	errs := make([]error, 2)
+	for i := range errs {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			_, errs[i] = run(t, "--study", st, "merge", f)
+		}()
+	}
+	wg.Wait()
+	if errs[0] != nil || errs[1] != nil {
+		t.Fatalf("merges: %v, %v", errs[0], errs[1])
+	}
+	after, _ := merge.ReadLedger(ledger)
+	if len(after) != len(before)+1 {
+		t.Errorf("ledger grew by %d entries, want 1", len(after)-len(before))
+	}
+}
+
+// check finds a whole study whole, and names each kind of damage a QA lead must see
+// before a report goes out.
+func TestCheck(t *testing.T) {
+	st := demoStudy(t)
+	if out, err := run(t, "--study", st, "check"); err != nil || !strings.Contains(out, "whole and of one generation") {
+		t.Fatalf("check of the demo study: %v\n%s", err, out)
+	}
+	stored, _ := filepath.Glob(filepath.Join(st, study.ReturnsDir, "*.json"))
+	os.Chmod(stored[0], 0o644)
+	b, _ := os.ReadFile(stored[0])
+	os.WriteFile(stored[0], bytes.Replace(b, []byte(`"present"`), []byte(`"absent"`), 1), 0o444)
+	cons := filepath.Join(st, study.ConsensusDir, merge.ConsensusFile)
+	c, _ := os.ReadFile(cons)
+	os.WriteFile(cons, c[:len(c)-20], 0o644)
+	os.Chmod(filepath.Join(st, study.SecretFile), 0o644)
+	if _, err := run(t, "--study", st, "--force", "draw", "--replace", "--n", "40", "--seed", "9"); err != nil {
+		t.Fatal(err)
+	}
+	out, err := run(t, "--study", st, "check")
+	if err == nil {
+		t.Error("check passed a damaged study")
+	}
+	for _, want := range []string{
+		"damaged  returns/" + filepath.Base(stored[0]) + ": its content's SHA-256",
+		"damaged  consensus/consensus.parquet: ",
+		"exposed  .quorate/secret: mode -rw-r--r--",
+		"stale    packets: ",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("check output lacks %q:\n%s", want, out)
+		}
 	}
 }
