@@ -25,6 +25,9 @@ func writeSchemaJSON(w io.Writer, d *Dictionary) error {
 	return enc.Encode(d)
 }
 
+// formulaNote explains the quote FormulaSafe puts before some text cells.
+const formulaNote = "A text cell that begins with `=`, `+`, `-`, `@`, a tab or a carriage return is written with a leading `'` so that a spreadsheet shows it as text instead of running it as a formula (OWASP, CSV Injection); remove that one character to get the value back. Numbers are never quoted."
+
 func writeDictionaryMD(w io.Writer, d *Dictionary) error {
 	var b strings.Builder
 	fmt.Fprintf(&b, "# Data dictionary\n\n> %s\n\nExported by quorate as %s. ", Caution, d.Format)
@@ -32,10 +35,11 @@ func writeDictionaryMD(w io.Writer, d *Dictionary) error {
 	case "parquet":
 		b.WriteString("Missing values are Parquet nulls; booleans are Parquet booleans.\n")
 	case "csv":
-		b.WriteString("Files are UTF-8, RFC 4180 CSV with a header row; numbers use a dot as decimal mark; booleans are `true`/`false`; a missing value is an empty cell; list columns separate their elements with `;`.\n")
+		b.WriteString("Files are UTF-8, RFC 4180 CSV with a header row; numbers use a dot as decimal mark; booleans are `true`/`false`; a missing value is an empty cell; list columns separate their elements with `;`. " + formulaNote + "\n")
 	case "bids":
-		b.WriteString("Tab-separated files follow BIDS: a missing value is `n/a`; booleans are `true`/`false`; list columns separate their elements with `;`.\n")
+		b.WriteString("Tab-separated files follow BIDS: a missing value is `n/a`; booleans are `true`/`false`; list columns separate their elements with `;`. " + formulaNote + "\n")
 	}
+	b.WriteString("\nNo table holds a patient's identification, a file or folder name or an archive path: recordings are named by a hash of their content, subjects by a keyed hash.\n")
 	if d.DatesShifted {
 		b.WriteString("\nDates are shifted per subject by a secret whole number of days; intervals between one subject's recordings are kept.\n")
 	} else {
