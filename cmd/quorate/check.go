@@ -1,12 +1,9 @@
 package main
 
 import (
-	"crypto/sha256"
-	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
-	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -94,7 +91,7 @@ func checkStudy(s *study.Study) []finding {
 		path string
 		read func(string) error
 	}{
-		{s.Path(study.PacketsDir, manifestFile), func(p string) error { _, err := packet.ReadManifest(p); return err }},
+		{s.Path(study.PacketsDir, packet.ManifestFile), func(p string) error { _, err := packet.ReadManifest(p); return err }},
 		{s.Path(study.TuningDir, report.PointFile), func(p string) error { _, err := report.ReadOperatingPoint(p); return err }},
 		{s.Path(study.DrawDir, draw.DesignFile), validJSON},
 		{s.Path(study.ConsensusDir, merge.AgreementJSON), validJSON},
@@ -158,12 +155,13 @@ func checkReturns(s *study.Study, rel func(string) string) []finding {
 			continue
 		}
 		onDisk[name] = true
-		sum, err := sha256File(filepath.Join(dir, name))
+		hs, err := s.HashAll(filepath.Join(dir, name))
 		want, _, _ := strings.Cut(name, ".")
 		switch {
-		case err != nil:
-			out = append(out, finding{"damaged", rel(filepath.Join(dir, name)), err.Error()})
-		case sum != want:
+		case err != nil || len(hs) != 1:
+			out = append(out, finding{"damaged", rel(filepath.Join(dir, name)), fmt.Sprint("cannot read it: ", err)})
+		case hs[0].SHA256 != want:
+			sum := hs[0].SHA256
 			out = append(out, finding{"damaged", rel(filepath.Join(dir, name)),
 				"its content's SHA-256 is " + sum[:12] + "…, not the one it is named by: the stored return was changed"})
 		}
@@ -192,19 +190,6 @@ func checkReturns(s *study.Study, rel func(string) string) []finding {
 	return out
 }
 
-func sha256File(p string) (string, error) {
-	f, err := os.Open(p)
-	if err != nil {
-		return "", err
-	}
-	defer f.Close()
-	h := sha256.New()
-	if _, err := io.Copy(h, f); err != nil {
-		return "", err
-	}
-	return hex.EncodeToString(h.Sum(nil)), nil
-}
-
 // checkTables reads every Parquet table of the study as its row type: footer, schema
 // and pages.
 func checkTables(s *study.Study, rel func(string) string) []finding {
@@ -228,7 +213,7 @@ func checkTables(s *study.Study, rel func(string) string) []finding {
 	for _, p := range drawn {
 		check(p, parquetfile.Check[draw.Row])
 	}
-	check(s.Path(study.PacketsDir, keyFile), parquetfile.Check[packet.KeyRow])
+	check(s.Path(study.PacketsDir, packet.KeyFile), parquetfile.Check[packet.KeyRow])
 	check(s.Path(study.ConsensusDir, merge.RatingsFile), parquetfile.Check[consensus.Rating])
 	check(s.Path(study.ConsensusDir, merge.ConsensusFile), parquetfile.Check[consensus.Event])
 	check(s.Path(study.TuningDir, report.SweepFile), parquetfile.Check[report.SweepRow])

@@ -183,7 +183,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 		return err
 	}
 	step("export")
-	if err := runExport(g, s, &exportFlags{to: filepath.Join(f.out, "export"), format: "parquet", montage: "common-average", window: 10}); err != nil {
+	if err := runExport(ctx, g, s, &exportFlags{to: filepath.Join(f.out, "export"), format: "parquet", montage: "common-average", window: 10}); err != nil {
 		return err
 	}
 	g.stdout = out

@@ -60,7 +60,7 @@ offset kept in the study. --epochs adds the raw samples around each event.`,
 			if f.to == "" {
 				return usageError{fmt.Errorf("--to: the export folder is required")}
 			}
-			return runExport(g, s, f)
+			return runExport(cmd.Context(), g, s, f)
 		},
 	}
 	fl := cmd.Flags()
@@ -76,7 +76,7 @@ offset kept in the study. --epochs adds the raw samples around each event.`,
 	return cmd
 }
 
-func runExport(g *globals, s *study.Study, f *exportFlags) error {
+func runExport(ctx context.Context, g *globals, s *study.Study, f *exportFlags) error {
 	recs, err := readIndex(s)
 	if err != nil {
 		return missingOr(err, "recordings", "quorate scan")
@@ -143,7 +143,7 @@ func runExport(g *globals, s *study.Study, f *exportFlags) error {
 			return err
 		}
 	}
-	res, err := export.Run(context.Background(), o)
+	res, err := export.Run(ctx, o)
 	if err != nil {
 		return err
 	}

@@ -37,6 +37,7 @@ type globals struct {
 	log       *slog.Logger
 	argv      []string
 	stdout    io.Writer
+	stderr    io.Writer // logs and errors; os.Stderr when nil
 	force     bool // go on although a stage before the command is stale
 }
 
@@ -77,9 +78,9 @@ panel, merge the ratings into a gold standard, tune, and export.
 			}
 			switch g.logFormat {
 			case "text":
-				h = slog.NewTextHandler(os.Stderr, opts)
+				h = slog.NewTextHandler(g.errOut(), opts)
 			case "json":
-				h = slog.NewJSONHandler(os.Stderr, opts)
+				h = slog.NewJSONHandler(g.errOut(), opts)
 			default:
 				return usageError{fmt.Errorf("--log-format: got %q, want text or json", g.logFormat)}
 			}
@@ -124,19 +125,19 @@ panel, merge the ratings into a gold standard, tune, and export.
 
 // execute runs the CLI and maps the outcome to an exit code.
 func execute(args []string) int {
-	g := &globals{argv: append([]string{"quorate"}, args...), stdout: os.Stdout}
+	g := &globals{argv: append([]string{"quorate"}, args...), stdout: os.Stdout, stderr: os.Stderr}
 	root := newRoot(g)
 	root.SetArgs(args)
 	err := root.ExecuteContext(context.Background())
 	if err == nil {
 		return exitOK
 	}
-	fmt.Fprintln(os.Stderr, "quorate:", err)
+	fmt.Fprintln(g.errOut(), "quorate:", err)
 	var ue usageError
 	var we warningsError
 	switch {
 	case errors.As(err, &ue) || isCobraUsage(err):
-		fmt.Fprintln(os.Stderr, "Run 'quorate --help' for usage.")
+		fmt.Fprintln(g.errOut(), "Run 'quorate --help' for usage.")
 		return exitUsage
 	case errors.As(err, &we):
 		return exitWarnings
@@ -155,6 +156,14 @@ func isCobraUsage(err error) bool {
 		}
 	}
 	return false
+}
+
+// errOut is where logs and errors go.
+func (g *globals) errOut() io.Writer {
+	if g.stderr == nil {
+		return os.Stderr
+	}
+	return g.stderr
 }
 
 // openStudy opens the study named by --study.

@@ -8,14 +8,9 @@ import (
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"github.com/quorate-eeg/quorate/panel/merge"
+	"github.com/quorate-eeg/quorate/panel/packet"
 	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/draw"
-)
-
-// Artefacts of the packets stage, as panel/packet writes them.
-const (
-	manifestFile = "manifest.json"
-	keyFile      = "key.parquet"
 )
 
 // pipeline is the study's stages in the order a study runs them, each with the inputs
@@ -27,7 +22,7 @@ var pipeline = []study.Stage{
 	{Name: "import-events", Inputs: []string{path.Join(study.IndexDir, archive.IndexFile)}, Refresh: "quorate import-events FILE"},
 	{Name: "draw", Inputs: []string{study.CandidatesDir, path.Join(study.IndexDir, archive.IndexFile)}, Refresh: "quorate draw --replace"},
 	{Name: "packets", Inputs: []string{path.Join(study.DrawDir, draw.DrawFile)}, Refresh: "quorate packets --replace"},
-	{Name: "merge", Inputs: []string{path.Join(study.DrawDir, draw.DrawFile), path.Join(study.PacketsDir, keyFile), path.Join(study.PacketsDir, manifestFile)},
+	{Name: "merge", Inputs: []string{path.Join(study.DrawDir, draw.DrawFile), path.Join(study.PacketsDir, packet.KeyFile), path.Join(study.PacketsDir, packet.ManifestFile)},
 		Refresh: "quorate merge with the returns of the current packets"},
 	{Name: "tune", Inputs: []string{path.Join(study.ConsensusDir, merge.ConsensusFile), path.Join(study.DrawDir, draw.DrawFile),
 		path.Join(study.IndexDir, archive.IndexFile), study.CandidatesDir}, Refresh: "quorate tune"},

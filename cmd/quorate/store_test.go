@@ -274,3 +274,19 @@ func TestCheck(t *testing.T) {
 		}
 	}
 }
+
+// Logs go to the injected stderr, like output to stdout: tune's warning about folds
+// (3 subjects, 5 folds asked for) is found there.
+func TestStderrInjectable(t *testing.T) {
+	st := demoStudy(t)
+	var out, errs bytes.Buffer
+	g := &globals{argv: []string{"quorate", "tune"}, stdout: &out, stderr: &errs}
+	root := newRoot(g)
+	root.SetArgs([]string{"--quiet", "--study", st, "tune"})
+	if err := root.Execute(); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(errs.String(), "folds asked for") || !strings.Contains(out.String(), "Operating point") {
+		t.Errorf("stderr %q, stdout %q", errs.String(), out.String())
+	}
+}

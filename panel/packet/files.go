@@ -1,0 +1,7 @@
+package packet
+
+// File names Build writes beside the raters' folders, for the coordinator only.
+const (
+	KeyFile      = "key.parquet"
+	ManifestFile = "manifest.json"
+)
