@@ -38,7 +38,7 @@ type globals struct {
 	argv      []string
 	stdout    io.Writer
 	stderr    io.Writer // logs and errors; os.Stderr when nil
-	force     bool // go on although a stage before the command is stale
+	force     bool      // go on although a stage before the command is stale
 }
 
 type usageError struct{ err error }
