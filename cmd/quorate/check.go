@@ -45,7 +45,8 @@ artefact and changes nothing:
   - every Parquet file's footer, schema and pages; the JSON files (manifest, design,
     operating point, agreement, generations) parse;
   - each stage's generation: outputs built from inputs that have changed since;
-  - the study secret and the archive paths readable by the owner only.
+  - the study secret and the archive paths readable by the owner only, and no archive
+    path left in index/recordings.parquet.
 
 Exit status 1 when anything is damaged or exposed; stale stages are listed and count as
 warnings (exit 3 with --strict).`,
@@ -110,6 +111,14 @@ func checkStudy(s *study.Study) []finding {
 	}
 	for _, e := range stale {
 		add("stale", e.Stage, e.Error())
+	}
+	if recs, err := archive.ReadIndex(s.Path(study.IndexDir, archive.IndexFile)); err == nil {
+		for _, r := range recs {
+			if r.Path != "" {
+				add("exposed", rel(s.Path(study.IndexDir, archive.IndexFile)), "keeps archive paths, which may carry names; run quorate scan to move them to "+study.PathsFile)
+				break
+			}
+		}
 	}
 	for _, p := range []string{study.SecretFile, study.PathsFile} {
 		st, err := os.Stat(s.Path(p))
