@@ -60,3 +60,21 @@ func (s *Study) Lock(argv []string) (unlock func(), err error) {
 
 // holderOf reads the holder's description from a lock file's content.
 func holderOf(b []byte) string { return strings.TrimSpace(string(b)) }
+
+// tryExclusive creates path+".held" exclusively (O_EXCL): the lock of systems or file
+// systems without flock(2). Unlike an flock, the file outlives a process that is
+// killed; the holder's description then names a process that has ended, and the file
+// must be removed by hand.
+func tryExclusive(path, holder string) (unlock func(), held string, err error) {
+	f, err := os.OpenFile(path+".held", os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o600)
+	if errors.Is(err, os.ErrExist) {
+		b, _ := os.ReadFile(path + ".held")
+		return nil, holderOf(b) + " (if that process has ended, remove " + path + ".held)", nil
+	}
+	if err != nil {
+		return nil, "", err
+	}
+	f.WriteString(holder + "\n")
+	f.Close()
+	return func() { os.Remove(path + ".held") }, "", nil
+}

@@ -24,6 +24,10 @@ func tryLock(path, holder string) (unlock func(), held string, err error) {
 		if errors.Is(err, syscall.EWOULDBLOCK) {
 			return nil, holderOf(b), nil
 		}
+		if errors.Is(err, syscall.ENOLCK) || errors.Is(err, syscall.EOPNOTSUPP) || errors.Is(err, syscall.ENOSYS) {
+			// A file system without flock (some network shares).
+			return tryExclusive(path, holder)
+		}
 		return nil, "", err
 	}
 	f.Truncate(0)

@@ -161,3 +161,22 @@ func TestConfigRefusals(t *testing.T) {
 		}
 	}
 }
+
+// The exclusive-file lock, used where flock(2) is not available, refuses a second
+// holder and names the first.
+func TestExclusiveLock(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "lock")
+	unlock, _, err := tryExclusive(p, "pid 1: quorate merge a.json")
+	if err != nil || unlock == nil {
+		t.Fatal(err)
+	}
+	if u, held, err := tryExclusive(p, "pid 2"); u != nil || err != nil || !strings.Contains(held, "quorate merge a.json") {
+		t.Errorf("second holder: %v %q %v", u != nil, held, err)
+	}
+	unlock()
+	if u, _, err := tryExclusive(p, "pid 2"); u == nil || err != nil {
+		t.Errorf("after release: %v", err)
+	} else {
+		u()
+	}
+}
