@@ -290,3 +290,26 @@ func TestStderrInjectable(t *testing.T) {
 		t.Errorf("stderr %q, stdout %q", errs.String(), out.String())
 	}
 }
+
+// A damaged Parquet file once made every command panic (exit 2, a usage error); a
+// Parquet file of another table was read as zero-valued rows.
+func TestDamagedTablesAreErrors(t *testing.T) {
+	st := demoStudy(t)
+	cons := filepath.Join(st, study.ConsensusDir, merge.ConsensusFile)
+	drawPath := filepath.Join(st, study.DrawDir, draw.DrawFile)
+	good, _ := os.ReadFile(cons)
+	os.WriteFile(cons, good[:len(good)*2/3], 0o644)
+	if code := execute([]string{"--quiet", "--force", "--study", st, "tune"}); code != exitError {
+		t.Errorf("tune on a torn consensus: exit %d, want %d", code, exitError)
+	}
+	_, err := run(t, "--study", st, "--force", "tune")
+	if err == nil || !strings.Contains(err.Error(), cons) || !strings.Contains(err.Error(), "damaged") {
+		t.Errorf("torn consensus: %v", err)
+	}
+	other, _ := os.ReadFile(drawPath)
+	os.WriteFile(cons, other, 0o644)
+	_, err = run(t, "--study", st, "--force", "tune")
+	if err == nil || !strings.Contains(err.Error(), "another table") {
+		t.Errorf("draw.parquet as the consensus: %v, want a schema refusal", err)
+	}
+}
