@@ -28,6 +28,9 @@ var timestamps = regexp.MustCompile(`\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d+)?
 // stampedHashes matches the hash of a report file in the provenance log.
 var stampedHashes = regexp.MustCompile(`("path":"[^"]*\.(?:json|md|html)",)"sha256":"[0-9a-f]{64}"`)
 
+// generatedHashes matches the digest of a report file in .quorate/generations.json.
+var generatedHashes = regexp.MustCompile(`("[^"]*\.(?:json|md|html)": )"[0-9a-f]{64}"`)
+
 // snapshot hashes every file under dir, with timestamps blanked in text files.
 func snapshot(t *testing.T, dir string) map[string]string {
 	t.Helper()
@@ -47,6 +50,9 @@ func snapshot(t *testing.T, dir string) map[string]string {
 		if filepath.Base(p) == "provenance.jsonl" {
 			// The log hashes reports, and reports carry their time of writing.
 			b = stampedHashes.ReplaceAll(b, []byte(`$1"sha256":"-"`))
+		}
+		if filepath.Base(p) == "generations.json" {
+			b = generatedHashes.ReplaceAll(b, []byte(`$1"-"`))
 		}
 		rel, _ := filepath.Rel(dir, p)
 		h := sha256.Sum256(b)

@@ -6,6 +6,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/export/report"
 	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/panel/packet"
@@ -20,12 +21,16 @@ var pipeline = []study.Stage{
 	{Name: "scan", Refresh: "quorate scan"},
 	{Name: "detect", Inputs: []string{path.Join(study.IndexDir, archive.IndexFile)}, Refresh: "quorate detect"},
 	{Name: "import-events", Inputs: []string{path.Join(study.IndexDir, archive.IndexFile)}, Refresh: "quorate import-events FILE"},
-	{Name: "draw", Inputs: []string{study.CandidatesDir, path.Join(study.IndexDir, archive.IndexFile)}, Refresh: "quorate draw --replace"},
-	{Name: "packets", Inputs: []string{path.Join(study.DrawDir, draw.DrawFile)}, Refresh: "quorate packets --replace"},
+	{Name: "draw", Inputs: []string{study.CandidatesDir, path.Join(study.IndexDir, archive.IndexFile)},
+		Outputs: []string{path.Join(study.DrawDir, draw.DrawFile), path.Join(study.DrawDir, draw.DesignFile)}, Refresh: "quorate draw --replace"},
+	{Name: "packets", Inputs: []string{path.Join(study.DrawDir, draw.DrawFile)},
+		Outputs: []string{path.Join(study.PacketsDir, packet.KeyFile), path.Join(study.PacketsDir, packet.ManifestFile)}, Refresh: "quorate packets --replace"},
 	{Name: "merge", Inputs: []string{path.Join(study.DrawDir, draw.DrawFile), path.Join(study.PacketsDir, packet.KeyFile), path.Join(study.PacketsDir, packet.ManifestFile)},
+		Outputs: []string{path.Join(study.ConsensusDir, merge.RatingsFile), path.Join(study.ConsensusDir, merge.ConsensusFile)},
 		Refresh: "quorate merge with the returns of the current packets"},
 	{Name: "tune", Inputs: []string{path.Join(study.ConsensusDir, merge.ConsensusFile), path.Join(study.DrawDir, draw.DrawFile),
-		path.Join(study.IndexDir, archive.IndexFile), study.CandidatesDir}, Refresh: "quorate tune"},
+		path.Join(study.IndexDir, archive.IndexFile), study.CandidatesDir},
+		Outputs: []string{path.Join(study.TuningDir, report.PointFile), path.Join(study.TuningDir, report.SweepFile)}, Refresh: "quorate tune"},
 	{Name: "export"},
 }
 

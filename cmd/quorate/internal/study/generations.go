@@ -18,17 +18,21 @@ const GenerationsFile = ".quorate/generations.json"
 
 // Stage is one step of the study whose outputs depend on earlier artefacts.
 type Stage struct {
-	Name    string   // the command that runs it, e.g. "packets"
-	Inputs  []string // files or folders, relative to the study folder
-	Refresh string   // the command line that rebuilds its outputs
+	Name   string   // the command that runs it, e.g. "packets"
+	Inputs []string // files or folders, relative to the study folder
+	// Outputs are the files or folders the stage alone writes; a change to them after
+	// the stage ran (an edit by hand, a file restored from elsewhere) is found too.
+	Outputs []string
+	Refresh string // the command line that rebuilds its outputs
 }
 
 // Generation is what a stage's last run was built from: each input's digest
 // (DigestOf), "" for an input that was absent.
 type Generation struct {
-	Time   time.Time         `json:"time"`
-	Argv   []string          `json:"argv"`
-	Inputs map[string]string `json:"inputs"`
+	Time    time.Time         `json:"time"`
+	Argv    []string          `json:"argv"`
+	Inputs  map[string]string `json:"inputs"`
+	Outputs map[string]string `json:"outputs,omitempty"`
 }
 
 // StaleError reports a stage whose outputs were built from inputs that have changed
@@ -38,11 +42,16 @@ type StaleError struct {
 	Input   string // the input that changed
 	Refresh string // the command that rebuilds the stage
 	Err     error  // a read error, when the input could not be hashed
+	Output  bool   // Input is one of the stage's outputs, changed after it wrote it
 }
 
 func (e *StaleError) Error() string {
 	if e.Err != nil {
 		return fmt.Sprintf("cannot check whether %s is up to date: %v", e.Stage, e.Err)
+	}
+	if e.Output {
+		return fmt.Sprintf("%s changed after %s wrote it; run %s first to rebuild it (or pass --force to go on with it as it is)",
+			e.Input, e.Stage, e.Refresh)
 	}
 	return fmt.Sprintf("the outputs of %s were built from an earlier %s; run %s first (or pass --force to go on with inputs of different generations)",
 		e.Stage, e.Input, e.Refresh)
@@ -90,9 +99,14 @@ func (s *Study) recordGeneration(st Stage, argv []string) error {
 	if err != nil {
 		return err
 	}
-	g := Generation{Time: time.Now().UTC(), Argv: argv, Inputs: map[string]string{}}
+	g := Generation{Time: time.Now().UTC(), Argv: argv, Inputs: map[string]string{}, Outputs: map[string]string{}}
 	for _, in := range st.Inputs {
 		if g.Inputs[in], err = s.DigestOf(in); err != nil {
+			return err
+		}
+	}
+	for _, out := range st.Outputs {
+		if g.Outputs[out], err = s.DigestOf(out); err != nil {
 			return err
 		}
 	}
@@ -121,19 +135,32 @@ func (s *Study) Stale(command string) ([]*StaleError, error) {
 		if !ok {
 			continue
 		}
-		for _, in := range st.Inputs {
-			d, err := s.DigestOf(in)
-			if err != nil {
-				out = append(out, &StaleError{Stage: st.Name, Input: in, Refresh: st.Refresh, Err: err})
-				break
-			}
-			if d != g.Inputs[in] {
-				out = append(out, &StaleError{Stage: st.Name, Input: in, Refresh: st.Refresh})
-				break
-			}
+		if e := s.changed(st, st.Inputs, g.Inputs, false); e != nil {
+			out = append(out, e)
+		} else if e := s.changed(st, st.Outputs, g.Outputs, true); e != nil {
+			out = append(out, e)
 		}
 	}
 	return out, nil
+}
+
+// changed returns a StaleError for the first of paths whose digest is not the recorded
+// one (outputs recorded before outputs were kept are not compared).
+func (s *Study) changed(st Stage, paths []string, recorded map[string]string, output bool) *StaleError {
+	for _, p := range paths {
+		want, ok := recorded[p]
+		if !ok && output {
+			continue
+		}
+		d, err := s.DigestOf(p)
+		if err != nil {
+			return &StaleError{Stage: st.Name, Input: p, Refresh: st.Refresh, Err: err, Output: output}
+		}
+		if d != want {
+			return &StaleError{Stage: st.Name, Input: p, Refresh: st.Refresh, Output: output}
+		}
+	}
+	return nil
 }
 
 // CheckFresh refuses, with the first StaleError, when a stage before command is stale.

@@ -180,3 +180,29 @@ func TestExclusiveLock(t *testing.T) {
 		u()
 	}
 }
+
+// An output edited after its stage wrote it (a consensus changed by hand) is stale too,
+// named with the command that rebuilds it.
+func TestGenerationsOutputChanged(t *testing.T) {
+	s := newStudy(t)
+	s.Stages = []Stage{
+		{Name: "merge", Inputs: []string{"packets/key.parquet"}, Outputs: []string{"consensus/consensus.parquet"}, Refresh: "quorate merge"},
+		{Name: "tune", Refresh: "quorate tune"},
+	}
+	for p, c := range map[string]string{"packets/key.parquet": "key", "consensus/consensus.parquet": "built"} {
+		os.MkdirAll(filepath.Dir(s.Path(p)), 0o755)
+		os.WriteFile(s.Path(p), []byte(c), 0o644)
+	}
+	if err := s.Record(Entry{Command: "merge"}); err != nil {
+		t.Fatal(err)
+	}
+	if err := s.CheckFresh("tune"); err != nil {
+		t.Fatal(err)
+	}
+	os.WriteFile(s.Path("consensus/consensus.parquet"), []byte("edited"), 0o644)
+	err := s.CheckFresh("tune")
+	var se *StaleError
+	if !errors.As(err, &se) || !se.Output || !strings.Contains(err.Error(), "consensus/consensus.parquet changed after merge wrote it") {
+		t.Errorf("edited consensus: %v", err)
+	}
+}
