@@ -2,9 +2,11 @@ package importer
 
 import (
 	"context"
+	"io"
 	"os"
 	"path/filepath"
 	"regexp"
+	"strings"
 	"testing"
 
 	"github.com/quorate-eeg/quorate/sampling/archive"
@@ -41,4 +43,23 @@ func FuzzReadAnnotations(f *testing.F) {
 			}
 		}
 	})
+}
+
+// An events table above maxTableBytes is refused, not read into memory whole.
+func TestReadTableCap(t *testing.T) {
+	defer func(n int) { maxTableBytes = n }(maxTableBytes)
+	maxTableBytes = 1 << 10
+	r := io.MultiReader(strings.NewReader("recording,onset\n"), io.LimitReader(zeros{}, int64(maxTableBytes)))
+	if _, err := readTable(r, "huge.csv", 0); err == nil || !strings.Contains(err.Error(), "huge.csv") {
+		t.Errorf("oversized table: %v", err)
+	}
+}
+
+type zeros struct{}
+
+func (zeros) Read(p []byte) (int, error) {
+	for i := range p {
+		p[i] = '0'
+	}
+	return len(p), nil
 }

@@ -9,6 +9,10 @@ import (
 	"strings"
 )
 
+// maxTableBytes bounds an imported events table, which is read whole: ten million
+// events of a hundred bytes each fit.
+var maxTableBytes = 1 << 30
+
 // table is a delimited file read whole: the header and each row with its line.
 type table struct {
 	file   string
@@ -62,9 +66,12 @@ func sniffDelimiter(header []byte) rune {
 // the delimiter from the header line. Fields are trimmed of surrounding spaces; a
 // byte-order mark before the header is dropped.
 func readTable(r io.Reader, file string, delim rune) (*table, error) {
-	data, err := io.ReadAll(r)
+	data, err := io.ReadAll(io.LimitReader(r, int64(maxTableBytes)+1))
 	if err != nil {
 		return nil, &ReadError{File: file, Err: err}
+	}
+	if len(data) > maxTableBytes {
+		return nil, &ReadError{File: file, Err: fmt.Errorf("more than %d bytes: split the table, or import one detector run at a time", maxTableBytes)}
 	}
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	if delim == 0 {
