@@ -17,6 +17,12 @@ type Sample struct {
 	// the capped design of package draw, n_h/N'_h ignores the thinning
 	// stage and is an approximation.
 	FPC map[string]float64
+
+	// Cluster optionally names each unit's primary sampling unit (PSU),
+	// in quorate the subject its events come from; nil makes every unit
+	// its own PSU. With clusters the variance is the with-replacement
+	// ultimate-cluster estimator (see clusterVar) and FPC is not used.
+	Cluster []string
 }
 
 // FieldError reports an input slice or value that does not fit the sample.
@@ -33,10 +39,12 @@ func (e *FieldError) Error() string {
 	return fmt.Sprintf("design: %s[%d]: %s", e.Field, e.Index, e.Msg)
 }
 
-// Estimate is a point estimate with its estimated variance.
+// Estimate is a point estimate with its estimated variance and the design
+// degrees of freedom of that variance (Sample.DF; 0 when unknown).
 type Estimate struct {
 	Value float64
 	Var   float64
+	DF    float64
 }
 
 // SE returns the standard error √Var.
@@ -54,6 +62,16 @@ func (s Sample) check(n int, cols map[string]int) error {
 	for i, w := range s.Weight {
 		if !(w >= 1) || math.IsInf(w, 0) {
 			return &FieldError{Field: "Weight", Index: i, Msg: fmt.Sprintf("weight %v is not 1/π with 0 < π ≤ 1", w)}
+		}
+	}
+	if s.Cluster != nil {
+		if len(s.Cluster) != len(s.Stratum) {
+			return &FieldError{Field: "Cluster", Index: -1, Msg: fmt.Sprintf("%d cluster ids for %d units", len(s.Cluster), len(s.Stratum))}
+		}
+		for i, c := range s.Cluster {
+			if c == "" {
+				return &FieldError{Field: "Cluster", Index: i, Msg: "empty cluster id"}
+			}
 		}
 	}
 	for h, f := range s.FPC {
@@ -88,8 +106,12 @@ func (s Sample) groups() [][]int {
 //
 // With w_i = N_h/n_h and f_h = n_h/N_h this is the unbiased
 // Σ_h N_h² (1−f_h) s²_zh / n_h (Cochran 1977, §5.3, Theorem 5.3 times N²).
-// A stratum with n_h = 1 contributes 0.
+// A stratum with n_h = 1 contributes 0. With Sample.Cluster set the
+// ultimate-cluster estimator clusterVar is used instead.
 func (s Sample) linVar(z []float64) float64 {
+	if s.Cluster != nil {
+		return s.clusterVar(z)
+	}
 	v := 0.0
 	for _, g := range s.groups() {
 		n := float64(len(g))
