@@ -19,6 +19,10 @@ const (
 	Neyman
 	// Table takes n_h from an explicit per-stratum table.
 	Table
+	// Accuracy oversamples strata likely to hold IEDs: the compromise
+	// Neyman allocation for sensitivity and specificity from a prior
+	// prevalence per stratum (AccuracyWeights), at least 2 per stratum.
+	Accuracy
 )
 
 func (m Method) String() string {
@@ -31,6 +35,8 @@ func (m Method) String() string {
 		return "neyman"
 	case Table:
 		return "table"
+	case Accuracy:
+		return "accuracy"
 	}
 	return fmt.Sprintf("Method(%d)", int(m))
 }
@@ -48,6 +54,21 @@ type Allocation struct {
 	SDColumn string
 
 	Table map[string]int // Table: n_h by stratum label
+
+	// Accuracy: prior prevalence p_h by stratum label; strata without one
+	// take the share of rows with PriorColumn ≥ PriorAt (defaults
+	// auto_count and 4; see priorOf).
+	Prior       map[string]float64
+	PriorColumn string
+	PriorAt     float64
+}
+
+// floor is the fewest units per stratum the method asks for.
+func (a Allocation) floor() int {
+	if a.Method == Accuracy {
+		return max(a.Min, accuracyFloor)
+	}
+	return a.Min
 }
 
 // Allocate splits n among strata of the given sizes in proportion to
@@ -180,7 +201,7 @@ func minInt(a, b int) int {
 
 // weights returns the allocation weight of every stratum and the total n.
 // size is N'_h (after any cap); sd holds S_h for Neyman.
-func (a Allocation) weights(labels []string, size []int, sd func(h int) (float64, error)) ([]float64, int, error) {
+func (a Allocation) weights(labels []string, size []int, sd func(h int) (float64, error), prior func() ([]float64, error)) ([]float64, int, error) {
 	w := make([]float64, len(size))
 	n := a.N
 	switch a.Method {
@@ -200,6 +221,13 @@ func (a Allocation) weights(labels []string, size []int, sd func(h int) (float64
 			}
 			w[h] = float64(size[h]) * s
 		}
+	case Accuracy:
+		p, err := prior()
+		if err != nil {
+			return nil, 0, err
+		}
+		w, err := AccuracyWeights(size, p)
+		return w, n, err
 	case Table:
 		sum := 0
 		known := make(map[string]bool, len(labels))
