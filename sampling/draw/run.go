@@ -34,12 +34,12 @@ type RunOptions struct {
 	Controls      int
 	ControlEpochS float64
 	ControlDistS  float64
-	TopUp         int  // >0: add this many events to the existing draw as a new phase
+	TopUp         int // >0: add this many events to the existing draw as a new phase
 	// Adaptive, with TopUp, allocates the new phase from the panel's
 	// returns per stratum (TopUpAdaptive); nil repeats the design's
 	// allocation (TopUp).
 	Adaptive map[string]PhaseEstimate
-	Replace       bool // replace an existing draw, keeping the old files beside the new
+	Replace  bool // replace an existing draw, keeping the old files beside the new
 }
 
 // RunResult summarises a draw.
