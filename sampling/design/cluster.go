@@ -31,21 +31,11 @@ import (
 func (s Sample) clusterVar(z []float64) float64 {
 	v := 0.0
 	for _, g := range s.psuStrata() {
-		n := float64(len(g))
-		if n < 2 {
-			continue
+		t := make([]float64, len(g))
+		for k, c := range g {
+			t[k] = c.total(s, z)
 		}
-		mean := 0.0
-		for _, c := range g {
-			mean += c.total(s, z)
-		}
-		mean /= n
-		ss := 0.0
-		for _, c := range g {
-			d := c.total(s, z) - mean
-			ss += d * d
-		}
-		v += n / (n - 1) * ss
+		v += spread(t)
 	}
 	return v
 }
@@ -90,16 +80,12 @@ func (s Sample) psuStrata() [][]psu {
 	var clusters []psu
 	var firstStratum []int
 	for i, h := range s.Stratum {
-		sh, ok := stratumAt[h]
-		if !ok {
-			sh = len(parent)
-			stratumAt[h] = sh
+		sh, isNew := firstSeen(stratumAt, h)
+		if isNew {
 			parent = append(parent, sh)
 		}
-		c, ok := clusterAt[s.Cluster[i]]
-		if !ok {
-			c = len(clusters)
-			clusterAt[s.Cluster[i]] = c
+		c, isNew := firstSeen(clusterAt, s.Cluster[i])
+		if isNew {
 			clusters = append(clusters, nil)
 			firstStratum = append(firstStratum, sh)
 		}
@@ -111,11 +97,8 @@ func (s Sample) psuStrata() [][]psu {
 	groupAt := map[int]int{}
 	var out [][]psu
 	for c, ps := range clusters {
-		r := find(firstStratum[c])
-		k, ok := groupAt[r]
-		if !ok {
-			k = len(out)
-			groupAt[r] = k
+		k, isNew := firstSeen(groupAt, find(firstStratum[c]))
+		if isNew {
 			out = append(out, nil)
 		}
 		out[k] = append(out[k], ps)

@@ -87,15 +87,24 @@ func (s Sample) groups() [][]int {
 	at := make(map[string]int)
 	var g [][]int
 	for i, h := range s.Stratum {
-		k, ok := at[h]
-		if !ok {
-			k = len(g)
-			at[h] = k
+		k, isNew := firstSeen(at, h)
+		if isNew {
 			g = append(g, nil)
 		}
 		g[k] = append(g[k], i)
 	}
 	return g
+}
+
+// firstSeen returns key's dense index in at, numbering keys in the order
+// they are first seen, and whether key is new.
+func firstSeen[K comparable](at map[K]int, key K) (int, bool) {
+	k, ok := at[key]
+	if !ok {
+		k = len(at)
+		at[key] = k
+	}
+	return k, !ok
 }
 
 // linVar is the stratified variance estimator of a weighted total Σ w_i z_i
@@ -114,21 +123,32 @@ func (s Sample) linVar(z []float64) float64 {
 	}
 	v := 0.0
 	for _, g := range s.groups() {
-		n := float64(len(g))
-		if n < 2 {
-			continue
+		t := make([]float64, len(g))
+		for k, i := range g {
+			t[k] = s.Weight[i] * z[i]
 		}
-		mean := 0.0
-		for _, i := range g {
-			mean += s.Weight[i] * z[i]
-		}
-		mean /= n
-		ss := 0.0
-		for _, i := range g {
-			d := s.Weight[i]*z[i] - mean
-			ss += d * d
-		}
-		v += (1 - s.FPC[s.Stratum[g[0]]]) * n / (n - 1) * ss
+		v += (1 - s.FPC[s.Stratum[g[0]]]) * spread(t)
 	}
 	return v
+}
+
+// spread returns n/(n−1) Σ (t_k − t̄)², the with-replacement variance
+// estimate of a total from n independent expanded values t_k (the pwr
+// estimator, Särndal, Swensson & Wretman 1992, §2.9 — section from
+// memory); 0 for n < 2.
+func spread(t []float64) float64 {
+	n := float64(len(t))
+	if n < 2 {
+		return 0
+	}
+	mean := 0.0
+	for _, x := range t {
+		mean += x
+	}
+	mean /= n
+	ss := 0.0
+	for _, x := range t {
+		ss += (x - mean) * (x - mean)
+	}
+	return n / (n - 1) * ss
 }
