@@ -65,3 +65,15 @@ func TestAccuracyOversamplesPositivesKeepsFloor(t *testing.T) {
 		t.Errorf("a stratum got %d units, floor %d", least, accuracyFloor)
 	}
 }
+
+func TestAllocateMinimumsBeforeWholeStrata(t *testing.T) {
+	// Σ n_h = n must hold (Hamilton's method keeps the total): a stratum taken
+	// whole before the minimums were reserved once gave 10 + 3·1 = 13 for n = 12.
+	alloc, _, err := Allocate([]string{"a", "b", "c", "d"}, []int{10, 10, 10, 10}, []float64{0, 0, 0, 1}, 12, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if alloc[0]+alloc[1]+alloc[2]+alloc[3] != 12 || alloc[3] != 9 || alloc[0] != 1 {
+		t.Errorf("allocation %v, want [1 1 1 9]", alloc)
+	}
+}

@@ -74,9 +74,9 @@ func (a Allocation) floor() int {
 // Allocate splits n among strata of the given sizes in proportion to
 // weight, so that every stratum gets at least min(min, N_h) and at most N_h.
 //
-// Shares are found iteratively: a stratum whose share R·w_h/Σw exceeds N_h
-// is taken whole (warning), one whose share falls below its minimum is fixed
-// at the minimum; fixed strata leave the pool and the rest of n is shared
+// Shares are found iteratively: a stratum whose share R·w_h/Σw falls below
+// its minimum is fixed at the minimum; then, if none did, one whose share
+// exceeds N_h is taken whole (warning); fixed strata leave the pool and the rest of n is shared
 // again among the others by the same rule, until no share is out of range.
 // If all remaining weights are zero the remaining strata share in
 // proportion to N_h. Fractional shares are then rounded by the largest
@@ -142,21 +142,23 @@ func Allocate(labels []string, size []int, weight []float64, n, min int) ([]int,
 				}
 			}
 		}
+		// Minimums are fixed before any stratum is taken whole: taking a
+		// stratum whole first could leave less than the minimums need.
 		changed := false
 		for h := range size {
 			if fixed[h] {
 				continue
 			}
 			share[h] = float64(rest) * w[h] / W
-			if share[h] > float64(size[h]) {
-				alloc[h], fixed[h], changed = size[h], true, true
-				warns = append(warns, Warning{Stratum: labels[h], Msg: fmt.Sprintf("stratum of %d is smaller than its allocation %.4g: taken whole, surplus redistributed", size[h], share[h])})
+			if share[h] < float64(min) {
+				alloc[h], fixed[h], changed = min, true, true
 			}
 		}
 		if !changed {
 			for h := range size {
-				if !fixed[h] && share[h] < float64(min) {
-					alloc[h], fixed[h], changed = min, true, true
+				if !fixed[h] && share[h] > float64(size[h]) {
+					alloc[h], fixed[h], changed = size[h], true, true
+					warns = append(warns, Warning{Stratum: labels[h], Msg: fmt.Sprintf("stratum of %d is smaller than its allocation %.4g: taken whole, surplus redistributed", size[h], share[h])})
 				}
 			}
 		}

@@ -127,3 +127,41 @@ func phaseEstimates(d []Drawn, y map[string]float64) map[string]PhaseEstimate {
 	}
 	return est
 }
+
+func TestAdaptiveWeightsCountTheStratum(t *testing.T) {
+	// Without a cap, T = λT₁ + (1−λ)T₂ applied to y ≡ 1 gives λN + (1−λ)N:
+	// the weights of every stratum add up to N_h exactly, and none is below
+	// 1 (TopUpAdaptive's limit on n2_h).
+	f, truth := simFrame()
+	y := map[string]float64{}
+	for i, id := range f.ID {
+		if truth[i] {
+			y[id] = 1
+		}
+	}
+	specs, _ := ParseStrata("score:q4,lobe")
+	d := Design{Strata: specs, Alloc: Allocation{Method: Proportional, N: 40}, Seed: 9}
+	p1, err := Draw(f, d)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := TopUpAdaptive(f, d, p1.Drawn, 60, 10, phaseEstimates(p1.Drawn, y))
+	if err != nil {
+		t.Fatal(err)
+	}
+	sum := map[string]float64{}
+	for _, u := range res.Drawn {
+		sum[u.Stratum] += u.Weight
+		if u.Weight < 1 || math.Abs(u.Pi*u.Weight-1) > 1e-12 {
+			t.Errorf("%s: weight %v, pi %v", u.EventID, u.Weight, u.Pi)
+		}
+	}
+	for _, s := range res.Strata {
+		if math.Abs(sum[s.Label]-float64(s.N)) > 1e-9 {
+			t.Errorf("stratum %s: weights add to %v, N_h = %d", s.Label, sum[s.Label], s.N)
+		}
+	}
+	if len(res.Phase.Allocation) == 0 || len(res.Phase.Baseline) == 0 || res.Phase.Phase != 2 {
+		t.Errorf("phase record incomplete: %+v", res.Phase)
+	}
+}
