@@ -35,7 +35,7 @@ type Drawn struct {
 	Stratum   string
 	Subject   string
 	Recording string
-	Pi        float64 // first-order inclusion probability for the union of phases so far
+	Pi        float64 // first-order inclusion probability for the union of phases so far; after an adaptive top-up, 1/Weight (see TopUpAdaptive)
 	Weight    float64 // 1/Pi
 	Phase     int     // 1 for the first draw, 2, … for top-ups
 	Order     int     // 1-based rating order: a random permutation of the sample
