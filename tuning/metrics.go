@@ -38,11 +38,12 @@ type Rates struct {
 //
 // Design: design-weighted combined ratio estimators (design.Sensitivity,
 // Specificity, PPV and design.Ratio for NPV and accuracy) with their
-// stratified linearised variance, strata as given and no finite population
-// correction (which overstates the variance slightly), turned into Wilson
+// linearised variance with subjects as primary sampling units (design.Sample
+// with Cluster; ultimate-cluster estimator, no finite population
+// correction, which overstates the variance slightly), turned into Wilson
 // intervals on the effective sample size (Korn & Graubard 1998, Survey
-// Methodology 24:193–201): n_eff = p(1−p)/v̂ capped at the denominator's
-// count, or Kish's (Σw)²/Σw² where p is 0 or 1; LRs and J are point estimates
+// Methodology 24:193–201): n_eff = p(1−p)/v̂ · (t_{n−1}/t_df)², df = subjects
+// − variance strata, capped at the denominator's count, or Kish's (Σw)²/Σw² where p is 0 or 1; LRs and J are point estimates
 // from the weighted counts.
 //
 // FalsePerHour is the design-weighted count of reference-negative candidates
@@ -71,7 +72,8 @@ func measure(s *evset, hit []bool, level float64) Metrics {
 		LRNeg:    lrInterval(c.LRNeg(), c.FN, c.TP+c.FN, c.TN, c.FP+c.TN, level),
 		Youden:   youdenInterval(c, level),
 	}
-	sm := design.Sample{Stratum: s.stratum, Weight: s.weight}
+	// subjects as primary sampling units (design.Sample.Cluster)
+	sm := design.Sample{Stratum: s.stratum, Weight: s.weight, Cluster: s.subject}
 	w := m.Weighted
 	ind := func(f func(p, t bool) bool) []float64 {
 		v := make([]float64, len(hit))
@@ -105,7 +107,7 @@ func measure(s *evset, hit []bool, level float64) Metrics {
 			p := e.Value
 			neff := math.NaN()
 			if v := e.Var; v > 0 && p > 0 && p < 1 {
-				neff = math.Min(n, p*(1-p)/v)
+				neff = e.EffectiveSize(n, level) // df-adjusted, Korn & Graubard 1998
 			} else if sw2 > 0 {
 				neff = sw * sw / sw2
 			}

@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 	"github.com/quorate-eeg/quorate/sampling/draw"
@@ -20,7 +21,7 @@ type drawFlags struct {
 	strata, allocation, sdColumn  string
 	epochS, distS                 float64
 	seed                          uint64
-	replace                       bool
+	replace, adaptive             bool
 }
 
 func newDrawCmd(g *globals) *cobra.Command {
@@ -35,12 +36,17 @@ order), draw/design.json and draw/strata.csv. Every later estimate is weighted b
 probabilities. Defaults come from study.yaml (draw:); flags override them.
 
 Allocation: equal, proportional, neyman (with --sd-column, a pilot standard deviation
-column), or table:FILE (a CSV with columns stratum,n). An existing draw is never replaced
-silently: --top-up N adds N events as a new phase; --replace starts over and keeps the old
-files beside the new ones.`,
+column), accuracy (oversamples strata likely to hold IEDs, judged by the share of candidates
+with auto_count ≥ 4, for precise sensitivity and specificity; every stratum keeps at least 2),
+or table:FILE (a CSV with columns stratum,n). An existing draw is never replaced
+silently: --top-up N adds N events as a new phase; with --adaptive the new phase is allocated
+from the panel's merged returns (consensus/consensus.parquet: per stratum, the share judged
+epileptiform and the share the raters split on), with design weights that stay unbiased;
+--replace starts over and keeps the old files beside the new ones.`,
 		Example: `  quorate --study /studies/ied-2027 draw --n 300 --strata score:q5,region --subject-cap 25
   quorate --study /studies/ied-2027 draw --allocation neyman --sd-column score --n 400
-  quorate --study /studies/ied-2027 draw --top-up 100`,
+  quorate --study /studies/ied-2027 draw --allocation accuracy --n 200
+  quorate --study /studies/ied-2027 draw --top-up 100 --adaptive`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			s, err := g.openStudy()
@@ -57,7 +63,7 @@ files beside the new ones.`,
 	fl := cmd.Flags()
 	fl.IntVar(&f.n, "n", 0, "events to draw (default: study.yaml draw.n)")
 	fl.StringVar(&f.strata, "strata", "", "stratifying columns, e.g. score:q5,region or score:edges=0,2,4")
-	fl.StringVar(&f.allocation, "allocation", "", "equal | proportional | neyman | table:FILE")
+	fl.StringVar(&f.allocation, "allocation", "", "equal | proportional | neyman | accuracy | table:FILE")
 	fl.StringVar(&f.sdColumn, "sd-column", "score", "numeric column whose within-stratum SD pilots a Neyman allocation")
 	fl.IntVar(&f.min, "min-per-stratum", 0, "fewest events per stratum")
 	fl.IntVar(&f.capN, "subject-cap", 0, "most events per subject and stratum (0: no cap)")
@@ -67,6 +73,7 @@ files beside the new ones.`,
 	fl.Uint64Var(&f.seed, "seed", 0, "random seed (default: study.yaml seed)")
 	fl.IntVar(&f.topUp, "top-up", 0, "add this many events to the existing draw as a new phase")
 	fl.BoolVar(&f.replace, "replace", false, "replace the existing draw, keeping the old files beside the new")
+	fl.BoolVar(&f.adaptive, "adaptive", false, "with --top-up: allocate the new phase from the panel's merged returns")
 	return cmd
 }
 
@@ -102,6 +109,12 @@ func applyDrawDefaults(cmd *cobra.Command, f *drawFlags, c *study.Config) {
 }
 
 func runDraw(g *globals, s *study.Study, f *drawFlags) error {
+	if f.topUp < 0 {
+		return usageError{fmt.Errorf("--top-up: got %d, want a number of events ≥ 1", f.topUp)}
+	}
+	if f.adaptive && f.topUp == 0 {
+		return usageError{fmt.Errorf("--adaptive needs --top-up N")}
+	}
 	specs, err := draw.ParseStrata(f.strata)
 	if err != nil {
 		return usageError{fmt.Errorf("--strata: %w", err)}
@@ -123,11 +136,17 @@ func runDraw(g *globals, s *study.Study, f *drawFlags) error {
 	if err != nil {
 		return fmt.Errorf("reading the archive index (run quorate scan first): %w", err)
 	}
+	var est map[string]draw.PhaseEstimate
+	if f.adaptive {
+		if est, err = phaseEstimates(s); err != nil {
+			return err
+		}
+	}
 	res, err := draw.Run(draw.RunOptions{
 		Candidates: cands, Recordings: recs, OutDir: s.Path(study.DrawDir),
 		Design:   draw.Design{Strata: specs, Alloc: alloc, Cap: f.capN, Seed: f.seed},
 		Controls: f.controls, ControlEpochS: f.epochS, ControlDistS: f.distS,
-		TopUp: f.topUp, Replace: f.replace,
+		TopUp: f.topUp, Replace: f.replace, Adaptive: est,
 	})
 	if err != nil {
 		return err
@@ -137,9 +156,13 @@ func runDraw(g *globals, s *study.Study, f *drawFlags) error {
 	}
 	seed := f.seed
 	inputs := append(s.Hash(s.Path(study.CandidatesDir)), s.Hash(s.Path(study.IndexDir, archive.IndexFile))...)
+	if f.adaptive {
+		inputs = append(inputs, s.Hash(s.Path(study.ConsensusDir, merge.ConsensusFile))...)
+	}
 	if err := s.Record(study.Entry{Version: Version, Command: "draw", Argv: g.argv, Seed: &seed, Inputs: inputs,
 		Outputs: s.Hash(s.Path(study.DrawDir, draw.DrawFile), s.Path(study.DrawDir, draw.DesignFile), s.Path(study.DrawDir, draw.StrataFile)),
-		Notes:   map[string]any{"rows": len(res.Rows), "strata": len(res.Strata), "top_up": f.topUp, "replaced": res.Replaced}}); err != nil {
+		Notes: map[string]any{"rows": len(res.Rows), "strata": len(res.Strata), "top_up": f.topUp, "adaptive": f.adaptive, "replaced": res.Replaced,
+			"phase": res.Phase.Phase, "phase_allocation": res.Phase.Allocation}}); err != nil {
 		return err
 	}
 	nc := 0
@@ -151,6 +174,55 @@ func runDraw(g *globals, s *study.Study, f *drawFlags) error {
 	fmt.Fprintf(g.stdout, "Drew %d events in %d strata and %d background controls (of %d eligible epochs) from %d candidates; see %s.\n",
 		len(res.Rows)-nc, len(res.Strata), nc, res.Eligible, len(cands), s.Path(study.DrawDir, draw.StrataFile))
 	return g.finish(len(res.Warnings))
+}
+
+// phaseEstimates reads the merged returns and the draw and gives, per
+// stratum, the share of rated events judged epileptiform and the share on
+// which the raters split (both verdict votes present).
+func phaseEstimates(s *study.Study) (map[string]draw.PhaseEstimate, error) {
+	path := s.Path(study.ConsensusDir, merge.ConsensusFile)
+	cons, err := merge.ReadConsensus(path)
+	if err != nil {
+		return nil, fmt.Errorf("--adaptive needs the merged returns (run quorate merge first): %w", err)
+	}
+	rows, err := draw.ReadRows(s.Path(study.DrawDir, draw.DrawFile))
+	if err != nil {
+		return nil, err
+	}
+	stratum := make(map[string]string, len(rows))
+	for _, r := range rows {
+		if r.Kind == draw.KindCandidate {
+			stratum[r.EventID] = r.Stratum
+		}
+	}
+	type acc struct{ n, yes, split int }
+	by := map[string]*acc{}
+	for _, e := range cons {
+		h, ok := stratum[e.EventID]
+		if !ok || (e.Verdict != "present" && e.Verdict != "absent") {
+			continue
+		}
+		a := by[h]
+		if a == nil {
+			a = &acc{}
+			by[h] = a
+		}
+		a.n++
+		if e.Verdict == "present" {
+			a.yes++
+		}
+		if e.VerdictYes > 0 && e.VerdictNo > 0 {
+			a.split++
+		}
+	}
+	if len(by) == 0 {
+		return nil, fmt.Errorf("%s: no rated event of the draw has a verdict; --adaptive needs phase-1 returns", path)
+	}
+	est := make(map[string]draw.PhaseEstimate, len(by))
+	for h, a := range by {
+		est[h] = draw.PhaseEstimate{Prevalence: float64(a.yes) / float64(a.n), Disagreement: float64(a.split) / float64(a.n), Rated: a.n}
+	}
+	return est, nil
 }
 
 // readAllocationTable reads a CSV with a header "stratum,n".

@@ -107,6 +107,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 		newScanCmd(g),
 		newDetectCmd(g),
 		newImportEventsCmd(g),
+		newPlanCmd(g),
 		newDrawCmd(g),
 		newPacketsCmd(g),
 		newMergeCmd(g),

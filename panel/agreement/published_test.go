@@ -2,6 +2,7 @@ package agreement
 
 import (
 	"bufio"
+	"fmt"
 	"math"
 	"os"
 	"strconv"
@@ -180,20 +181,48 @@ func TestBinary7Statsmodels(t *testing.T) {
 }
 
 func TestLandisKoch(t *testing.T) {
-	// Landis & Koch (1977), p. 165; boundary rule documented on LandisKoch.
+	// Landis & Koch (1977), Biometrics 33:159, table on p. 165: every published
+	// limit, both ends of each band.
+	published := []struct {
+		lo, hi float64
+		want   string
+	}{
+		{0.00, 0.20, "slight"}, {0.21, 0.40, "fair"}, {0.41, 0.60, "moderate"},
+		{0.61, 0.80, "substantial"}, {0.81, 1.00, "almost perfect"},
+	}
+	for _, b := range published {
+		for _, k := range []float64{b.lo, b.hi} {
+			if got := LandisKoch(k); got != b.want {
+				t.Errorf("LandisKoch(%.2f) = %q, want %q (published band %.2f–%.2f)", k, got, b.want, b.lo, b.hi)
+			}
+		}
+	}
+	// Below the table, and values between the printed limits placed by their
+	// two-decimal printing (rule documented on LandisKoch).
 	cases := []struct {
 		k    float64
 		want string
 	}{
-		{0.30, "fair"}, {0.56, "moderate"},
-		{-0.01, "poor"}, {0, "slight"}, {0.20, "slight"}, {0.205, "fair"},
-		{0.40, "fair"}, {0.41, "moderate"}, {0.61, "substantial"},
-		{0.80, "substantial"}, {0.81, "almost perfect"}, {1, "almost perfect"},
+		{-0.01, "poor"}, {-1, "poor"}, {0.30, "fair"}, {0.56, "moderate"},
+		{0.1 + 0.3, "fair"}, // 0.4000000000000001, prints 0.40
+		{0.404, "fair"},     // prints 0.40
+		{0.406, "moderate"}, // prints 0.41
+		{0.2049, "slight"},  // prints 0.20
+		{0.2051, "fair"},    // prints 0.21
+		{0.6 + 1e-12, "moderate"}, {0.8 + 1e-12, "substantial"},
 		{math.NaN(), ""},
 	}
 	for _, tc := range cases {
 		if got := LandisKoch(tc.k); got != tc.want {
 			t.Errorf("LandisKoch(%v) = %q, want %q", tc.k, got, tc.want)
+		}
+		if math.IsNaN(tc.k) {
+			continue
+		}
+		// The word must agree with the kappa as the reports print it.
+		printed, _ := strconv.ParseFloat(fmt.Sprintf("%.2f", tc.k), 64)
+		if LandisKoch(printed) != LandisKoch(tc.k) {
+			t.Errorf("LandisKoch(%v) disagrees with its printed value %.2f", tc.k, printed)
 		}
 	}
 }

@@ -31,7 +31,7 @@ func (a *Agreement) WriteMarkdown(w io.Writer) error {
 	fmt.Fprintf(&b, "# Panel agreement\n\n> %s\n\n", Caution)
 	fmt.Fprintf(&b, "%d events from %d subjects rated by %d raters (%s). Intervals are %.0f %% percentile bootstrap intervals over %d replicates that resample subjects, not events.\n\n",
 		a.Events, a.Subjects, len(a.Raters), strings.Join(a.Raters, ", "), 100*float64(a.Level), a.Replicates)
-	b.WriteString("Kappa words follow Landis & Koch (1977): below 0 poor, to 0.20 slight, to 0.40 fair, to 0.60 moderate, to 0.80 substantial, above almost perfect.\n\n")
+	b.WriteString("Kappa words follow Landis & Koch (1977) as published: below 0.00 poor, 0.00–0.20 slight, 0.21–0.40 fair, 0.41–0.60 moderate, 0.61–0.80 substantial, 0.81–1.00 almost perfect (kappa placed as printed, to two decimals).\n\n")
 	b.WriteString("| question | observed agreement | Fleiss' kappa | in words | Gwet's AC1 | Krippendorff's alpha |\n|---|---|---|---|---|---|\n")
 	for _, q := range a.Questions {
 		fmt.Fprintf(&b, "| %s | %s | %s | %s | %s | %s |\n", questionName(q.Question), est(q.Observed), est(q.Fleiss), q.FleissBand, est(q.AC1), est(q.Alpha))

@@ -33,7 +33,7 @@ func Ratio(s Sample, y, x []float64) (Estimate, error) {
 	for i := range z {
 		z[i] = y[i] - r*x[i]
 	}
-	return Estimate{Value: r, Var: s.linVar(z) / (tx * tx)}, nil
+	return Estimate{Value: r, Var: s.linVar(z) / (tx * tx), DF: s.DF()}, nil
 }
 
 func indicators(pred, truth []bool, f func(p, t bool) (num, den bool)) (y, x []float64, err error) {
@@ -106,5 +106,5 @@ func RatePerHour(s Sample, y []float64, hours float64) (Estimate, error) {
 	if err != nil {
 		return Estimate{}, err
 	}
-	return Estimate{Value: t.Value / hours, Var: t.Var / (hours * hours)}, nil
+	return Estimate{Value: t.Value / hours, Var: t.Var / (hours * hours), DF: t.DF}, nil
 }

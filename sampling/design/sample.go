@@ -17,6 +17,12 @@ type Sample struct {
 	// the capped design of package draw, n_h/N'_h ignores the thinning
 	// stage and is an approximation.
 	FPC map[string]float64
+
+	// Cluster optionally names each unit's primary sampling unit (PSU),
+	// in quorate the subject its events come from; nil makes every unit
+	// its own PSU. With clusters the variance is the with-replacement
+	// ultimate-cluster estimator (see clusterVar) and FPC is not used.
+	Cluster []string
 }
 
 // FieldError reports an input slice or value that does not fit the sample.
@@ -33,10 +39,12 @@ func (e *FieldError) Error() string {
 	return fmt.Sprintf("design: %s[%d]: %s", e.Field, e.Index, e.Msg)
 }
 
-// Estimate is a point estimate with its estimated variance.
+// Estimate is a point estimate with its estimated variance and the design
+// degrees of freedom of that variance (Sample.DF; 0 when unknown).
 type Estimate struct {
 	Value float64
 	Var   float64
+	DF    float64
 }
 
 // SE returns the standard error √Var.
@@ -56,6 +64,16 @@ func (s Sample) check(n int, cols map[string]int) error {
 			return &FieldError{Field: "Weight", Index: i, Msg: fmt.Sprintf("weight %v is not 1/π with 0 < π ≤ 1", w)}
 		}
 	}
+	if s.Cluster != nil {
+		if len(s.Cluster) != len(s.Stratum) {
+			return &FieldError{Field: "Cluster", Index: -1, Msg: fmt.Sprintf("%d cluster ids for %d units", len(s.Cluster), len(s.Stratum))}
+		}
+		for i, c := range s.Cluster {
+			if c == "" {
+				return &FieldError{Field: "Cluster", Index: i, Msg: "empty cluster id"}
+			}
+		}
+	}
 	for h, f := range s.FPC {
 		if !(f >= 0 && f <= 1) {
 			return &FieldError{Field: "FPC", Index: -1, Msg: fmt.Sprintf("stratum %q: fraction %v outside [0,1]", h, f)}
@@ -69,15 +87,24 @@ func (s Sample) groups() [][]int {
 	at := make(map[string]int)
 	var g [][]int
 	for i, h := range s.Stratum {
-		k, ok := at[h]
-		if !ok {
-			k = len(g)
-			at[h] = k
+		k, isNew := firstSeen(at, h)
+		if isNew {
 			g = append(g, nil)
 		}
 		g[k] = append(g[k], i)
 	}
 	return g
+}
+
+// firstSeen returns key's dense index in at, numbering keys in the order
+// they are first seen, and whether key is new.
+func firstSeen[K comparable](at map[K]int, key K) (int, bool) {
+	k, ok := at[key]
+	if !ok {
+		k = len(at)
+		at[key] = k
+	}
+	return k, !ok
 }
 
 // linVar is the stratified variance estimator of a weighted total Σ w_i z_i
@@ -88,25 +115,40 @@ func (s Sample) groups() [][]int {
 //
 // With w_i = N_h/n_h and f_h = n_h/N_h this is the unbiased
 // Σ_h N_h² (1−f_h) s²_zh / n_h (Cochran 1977, §5.3, Theorem 5.3 times N²).
-// A stratum with n_h = 1 contributes 0.
+// A stratum with n_h = 1 contributes 0. With Sample.Cluster set the
+// ultimate-cluster estimator clusterVar is used instead.
 func (s Sample) linVar(z []float64) float64 {
+	if s.Cluster != nil {
+		return s.clusterVar(z)
+	}
 	v := 0.0
 	for _, g := range s.groups() {
-		n := float64(len(g))
-		if n < 2 {
-			continue
+		t := make([]float64, len(g))
+		for k, i := range g {
+			t[k] = s.Weight[i] * z[i]
 		}
-		mean := 0.0
-		for _, i := range g {
-			mean += s.Weight[i] * z[i]
-		}
-		mean /= n
-		ss := 0.0
-		for _, i := range g {
-			d := s.Weight[i]*z[i] - mean
-			ss += d * d
-		}
-		v += (1 - s.FPC[s.Stratum[g[0]]]) * n / (n - 1) * ss
+		v += (1 - s.FPC[s.Stratum[g[0]]]) * spread(t)
 	}
 	return v
+}
+
+// spread returns n/(n−1) Σ (t_k − t̄)², the with-replacement variance
+// estimate of a total from n independent expanded values t_k (the pwr
+// estimator, Särndal, Swensson & Wretman 1992, §2.9 — section from
+// memory); 0 for n < 2.
+func spread(t []float64) float64 {
+	n := float64(len(t))
+	if n < 2 {
+		return 0
+	}
+	mean := 0.0
+	for _, x := range t {
+		mean += x
+	}
+	mean /= n
+	ss := 0.0
+	for _, x := range t {
+		ss += (x - mean) * (x - mean)
+	}
+	return n / (n - 1) * ss
 }

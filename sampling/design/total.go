@@ -36,7 +36,7 @@ func Total(s Sample, y []float64) (Estimate, error) {
 	for i, w := range s.Weight {
 		t += w * y[i]
 	}
-	return Estimate{Value: t, Var: s.linVar(y)}, nil
+	return Estimate{Value: t, Var: s.linVar(y), DF: s.DF()}, nil
 }
 
 // StratMean returns the stratified mean and its unbiased variance under

@@ -19,6 +19,10 @@ const (
 	Neyman
 	// Table takes n_h from an explicit per-stratum table.
 	Table
+	// Accuracy oversamples strata likely to hold IEDs: the compromise
+	// Neyman allocation for sensitivity and specificity from a prior
+	// prevalence per stratum (AccuracyWeights), at least 2 per stratum.
+	Accuracy
 )
 
 func (m Method) String() string {
@@ -31,6 +35,8 @@ func (m Method) String() string {
 		return "neyman"
 	case Table:
 		return "table"
+	case Accuracy:
+		return "accuracy"
 	}
 	return fmt.Sprintf("Method(%d)", int(m))
 }
@@ -48,14 +54,29 @@ type Allocation struct {
 	SDColumn string
 
 	Table map[string]int // Table: n_h by stratum label
+
+	// Accuracy: prior prevalence p_h by stratum label; strata without one
+	// take the share of rows with PriorColumn ≥ PriorAt (defaults
+	// auto_count and 4; see priorOf).
+	Prior       map[string]float64
+	PriorColumn string
+	PriorAt     float64
+}
+
+// floor is the fewest units per stratum the method asks for.
+func (a Allocation) floor() int {
+	if a.Method == Accuracy {
+		return max(a.Min, accuracyFloor)
+	}
+	return a.Min
 }
 
 // Allocate splits n among strata of the given sizes in proportion to
 // weight, so that every stratum gets at least min(min, N_h) and at most N_h.
 //
-// Shares are found iteratively: a stratum whose share R·w_h/Σw exceeds N_h
-// is taken whole (warning), one whose share falls below its minimum is fixed
-// at the minimum; fixed strata leave the pool and the rest of n is shared
+// Shares are found iteratively: a stratum whose share R·w_h/Σw falls below
+// its minimum is fixed at the minimum; then, if none did, one whose share
+// exceeds N_h is taken whole (warning); fixed strata leave the pool and the rest of n is shared
 // again among the others by the same rule, until no share is out of range.
 // If all remaining weights are zero the remaining strata share in
 // proportion to N_h. Fractional shares are then rounded by the largest
@@ -121,21 +142,23 @@ func Allocate(labels []string, size []int, weight []float64, n, min int) ([]int,
 				}
 			}
 		}
+		// Minimums are fixed before any stratum is taken whole: taking a
+		// stratum whole first could leave less than the minimums need.
 		changed := false
 		for h := range size {
 			if fixed[h] {
 				continue
 			}
 			share[h] = float64(rest) * w[h] / W
-			if share[h] > float64(size[h]) {
-				alloc[h], fixed[h], changed = size[h], true, true
-				warns = append(warns, Warning{Stratum: labels[h], Msg: fmt.Sprintf("stratum of %d is smaller than its allocation %.4g: taken whole, surplus redistributed", size[h], share[h])})
+			if share[h] < float64(min) {
+				alloc[h], fixed[h], changed = min, true, true
 			}
 		}
 		if !changed {
 			for h := range size {
-				if !fixed[h] && share[h] < float64(min) {
-					alloc[h], fixed[h], changed = min, true, true
+				if !fixed[h] && share[h] > float64(size[h]) {
+					alloc[h], fixed[h], changed = size[h], true, true
+					warns = append(warns, Warning{Stratum: labels[h], Msg: fmt.Sprintf("stratum of %d is smaller than its allocation %.4g: taken whole, surplus redistributed", size[h], share[h])})
 				}
 			}
 		}
@@ -180,7 +203,7 @@ func minInt(a, b int) int {
 
 // weights returns the allocation weight of every stratum and the total n.
 // size is N'_h (after any cap); sd holds S_h for Neyman.
-func (a Allocation) weights(labels []string, size []int, sd func(h int) (float64, error)) ([]float64, int, error) {
+func (a Allocation) weights(labels []string, size []int, sd func(h int) (float64, error), prior func() ([]float64, error)) ([]float64, int, error) {
 	w := make([]float64, len(size))
 	n := a.N
 	switch a.Method {
@@ -200,6 +223,13 @@ func (a Allocation) weights(labels []string, size []int, sd func(h int) (float64
 			}
 			w[h] = float64(size[h]) * s
 		}
+	case Accuracy:
+		p, err := prior()
+		if err != nil {
+			return nil, 0, err
+		}
+		w, err := AccuracyWeights(size, p)
+		return w, n, err
 	case Table:
 		sum := 0
 		known := make(map[string]bool, len(labels))

@@ -17,6 +17,14 @@
 // random samples without replacement (n1 from N', then n2 from N'−n1) are
 // one simple random sample of n1+n2, so π = min(1, c/N_sh)·(n1+n2)/N'_h.
 //
+// Allocations: equal, proportional, Neyman, an explicit table, and
+// Accuracy, the compromise Neyman allocation for sensitivity and
+// specificity from a prior prevalence per stratum (AccuracyWeights). An
+// adaptive top-up (TopUpAdaptive) allocates a later phase from the panel's
+// returns; its weights are conditional two-phase weights, unbiased although
+// the phase sizes depend on the returns. Every phase's allocation and reason
+// is kept in design.json.
+//
 // Results are deterministic for a given population and seed whatever the
 // order of the input rows: rows are sorted by ID before any random step and
 // all randomness comes from math/rand/v2 PCG sources seeded explicitly.

@@ -35,7 +35,7 @@ type Drawn struct {
 	Stratum   string
 	Subject   string
 	Recording string
-	Pi        float64 // first-order inclusion probability for the union of phases so far
+	Pi        float64 // first-order inclusion probability for the union of phases so far; after an adaptive top-up, 1/Weight (see TopUpAdaptive)
 	Weight    float64 // 1/Pi
 	Phase     int     // 1 for the first draw, 2, … for top-ups
 	Order     int     // 1-based rating order: a random permutation of the sample
@@ -55,6 +55,7 @@ type Result struct {
 	Drawn    []Drawn // sorted by Order
 	Strata   []StratumSummary
 	Warnings []Warning
+	Phase    PhaseRecord // the phase this call drew
 }
 
 // frameDesign is the deterministic part of a design applied to a frame:
@@ -213,7 +214,7 @@ func Draw(f *Frame, d Design) (*Result, error) {
 		return nil, err
 	}
 	capped := fd.cappedSizes()
-	w, n, err := d.Alloc.weights(fd.labels, capped, fd.sd(d.Alloc))
+	w, n, err := d.Alloc.weights(fd.labels, capped, fd.sd(d.Alloc), func() ([]float64, error) { return fd.priorOf(d.Alloc) })
 	if err != nil {
 		return nil, err
 	}
@@ -227,11 +228,17 @@ func Draw(f *Frame, d Design) (*Result, error) {
 	if n > avail {
 		return nil, fd.sizeError(n, d.Cap)
 	}
-	alloc, warns, err := Allocate(fd.labels, capped, w, n, d.Alloc.Min)
+	alloc, warns, err := Allocate(fd.labels, capped, w, n, d.Alloc.floor())
 	if err != nil {
 		return nil, err
 	}
 	res := &Result{Warnings: append(append([]Warning(nil), fd.st.Warnings...), warns...)}
+	res.Phase = PhaseRecord{Phase: 1, N: n, Method: d.Alloc.Method.String(), Why: "first phase: the design's allocation",
+		Allocation: byLabel(fd.labels, alloc)}
+	if d.Alloc.Method == Accuracy {
+		p, _ := fd.priorOf(d.Alloc) // computed without error by weights above
+		res.Phase.Prior = byLabel(fd.labels, p)
+	}
 	rng := rand.New(rand.NewPCG(d.Seed, streamPhase+1))
 	for h, pool := range fd.pool {
 		k := alloc[h]

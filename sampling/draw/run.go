@@ -34,8 +34,12 @@ type RunOptions struct {
 	Controls      int
 	ControlEpochS float64
 	ControlDistS  float64
-	TopUp         int  // >0: add this many events to the existing draw as a new phase
-	Replace       bool // replace an existing draw, keeping the old files beside the new
+	TopUp         int // >0: add this many events to the existing draw as a new phase
+	// Adaptive, with TopUp, allocates the new phase from the panel's
+	// returns per stratum (TopUpAdaptive); nil repeats the design's
+	// allocation (TopUp).
+	Adaptive map[string]PhaseEstimate
+	Replace  bool // replace an existing draw, keeping the old files beside the new
 }
 
 // RunResult summarises a draw.
@@ -45,6 +49,7 @@ type RunResult struct {
 	Warnings []Warning
 	Eligible int // eligible control epochs (M)
 	Replaced string
+	Phase    PhaseRecord // the phase this run drew
 }
 
 // savedDesign is design.json: what a top-up needs to repeat the design exactly.
@@ -61,6 +66,10 @@ type savedDesign struct {
 	Controls      int                `json:"controls"`
 	ControlEpochS float64            `json:"control_epoch_s"`
 	ControlDistS  float64            `json:"control_min_distance_s"`
+	Prior         map[string]float64 `json:"prior_prevalence,omitempty"`
+	PriorColumn   string             `json:"prior_column,omitempty"`
+	PriorAt       float64            `json:"prior_at,omitempty"`
+	Phases        []PhaseRecord      `json:"phases,omitempty"`
 }
 
 // ErrDrawExists is returned when a draw exists and neither TopUp nor Replace is set.
@@ -112,11 +121,17 @@ func Run(o RunOptions) (*RunResult, error) {
 			onset[r.EventID] = r.OnsetS
 			maxPhase = max(maxPhase, int(r.Phase))
 		}
-		dr, err := TopUp(f, d, prevDrawn, o.TopUp, d.Seed+uint64(maxPhase))
+		draw := TopUp
+		if o.Adaptive != nil {
+			draw = func(f *Frame, d Design, prev []Drawn, n int, seed uint64) (*Result, error) {
+				return TopUpAdaptive(f, d, prev, n, seed, o.Adaptive)
+			}
+		}
+		dr, err := draw(f, d, prevDrawn, o.TopUp, d.Seed+uint64(maxPhase))
 		if err != nil {
 			return nil, err
 		}
-		res.Strata, res.Warnings = dr.Strata, dr.Warnings
+		res.Strata, res.Warnings, res.Phase = dr.Strata, dr.Warnings, dr.Phase
 		for _, x := range dr.Drawn {
 			rows = append(rows, rowOf(x, onset[x.EventID]))
 		}
@@ -125,7 +140,7 @@ func Run(o RunOptions) (*RunResult, error) {
 		if err != nil {
 			return nil, err
 		}
-		res.Strata, res.Warnings = dr.Strata, dr.Warnings
+		res.Strata, res.Warnings, res.Phase = dr.Strata, dr.Warnings, dr.Phase
 		for _, x := range dr.Drawn {
 			rows = append(rows, rowOf(x, onset[x.EventID]))
 		}
@@ -172,9 +187,11 @@ func Run(o RunOptions) (*RunResult, error) {
 		return nil, err
 	}
 	if o.TopUp == 0 {
-		if err := writeDesign(filepath.Join(o.OutDir, DesignFile), o); err != nil {
+		if err := writeDesign(filepath.Join(o.OutDir, DesignFile), o, res.Phase); err != nil {
 			return nil, err
 		}
+	} else if err := appendPhase(filepath.Join(o.OutDir, DesignFile), res.Phase); err != nil {
+		return nil, err
 	}
 	return res, writeStrata(filepath.Join(o.OutDir, StrataFile), res.Strata)
 }
@@ -230,11 +247,30 @@ func keepAside(dir, tag string, move bool) (string, error) {
 	}
 }
 
-func writeDesign(path string, o RunOptions) error {
+func writeDesign(path string, o RunOptions, phase PhaseRecord) error {
 	a := o.Design.Alloc
 	sd := savedDesign{Strata: FormatStrata(o.Design.Strata), Method: a.Method.String(), N: a.N, Min: a.Min,
 		SDColumn: a.SDColumn, SD: a.SD, Table: a.Table, Cap: o.Design.Cap, Seed: o.Design.Seed,
-		Controls: o.Controls, ControlEpochS: o.ControlEpochS, ControlDistS: o.ControlDistS}
+		Controls: o.Controls, ControlEpochS: o.ControlEpochS, ControlDistS: o.ControlDistS,
+		Prior: a.Prior, PriorColumn: a.PriorColumn, PriorAt: a.PriorAt, Phases: []PhaseRecord{phase}}
+	return saveDesign(path, sd)
+}
+
+// appendPhase adds a top-up's record to design.json, keeping all else.
+func appendPhase(path string, phase PhaseRecord) error {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return err
+	}
+	var sd savedDesign
+	if err := json.Unmarshal(b, &sd); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	sd.Phases = append(sd.Phases, phase)
+	return saveDesign(path, sd)
+}
+
+func saveDesign(path string, sd savedDesign) error {
 	b, err := json.MarshalIndent(sd, "", "  ")
 	if err != nil {
 		return err
@@ -260,17 +296,18 @@ func readDesign(path string) (Design, error) {
 		return Design{}, fmt.Errorf("%s: %w", path, err)
 	}
 	return Design{Strata: specs, Cap: sd.Cap, Seed: sd.Seed,
-		Alloc: Allocation{Method: m, N: sd.N, Min: sd.Min, SDColumn: sd.SDColumn, SD: sd.SD, Table: sd.Table}}, nil
+		Alloc: Allocation{Method: m, N: sd.N, Min: sd.Min, SDColumn: sd.SDColumn, SD: sd.SD, Table: sd.Table,
+			Prior: sd.Prior, PriorColumn: sd.PriorColumn, PriorAt: sd.PriorAt}}, nil
 }
 
-// ParseMethod reads an allocation name: equal, proportional, neyman or table.
+// ParseMethod reads an allocation name: equal, proportional, neyman, accuracy or table.
 func ParseMethod(s string) (Method, error) {
-	for _, m := range []Method{Equal, Proportional, Neyman, Table} {
+	for _, m := range []Method{Equal, Proportional, Neyman, Accuracy, Table} {
 		if m.String() == s {
 			return m, nil
 		}
 	}
-	return 0, fmt.Errorf("allocation: got %q, want equal, proportional, neyman or table", s)
+	return 0, fmt.Errorf("allocation: got %q, want equal, proportional, neyman, accuracy or table", s)
 }
 
 func writeStrata(path string, ss []StratumSummary) error {

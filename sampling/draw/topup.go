@@ -25,6 +25,13 @@ import (
 // more than the largest in prev, and Order values after the largest in prev,
 // in a random permutation; seed drives this phase's draw.
 func TopUp(f *Frame, d Design, prev []Drawn, n int, seed uint64) (*Result, error) {
+	return topUp(f, d, prev, n, seed, nil)
+}
+
+func topUp(f *Frame, d Design, prev []Drawn, n int, seed uint64, est map[string]PhaseEstimate) (*Result, error) {
+	if n < 1 {
+		return nil, &AllocationError{Msg: fmt.Sprintf("top-up of %d events, want ≥ 1", n)}
+	}
 	fd, err := prepare(f, d)
 	if err != nil {
 		return nil, err
@@ -63,7 +70,7 @@ func TopUp(f *Frame, d Design, prev []Drawn, n int, seed uint64) (*Result, error
 		n1[h]++
 	}
 	capped := fd.cappedSizes()
-	w, _, err := d.Alloc.weights(fd.labels, capped, fd.sd(d.Alloc))
+	w, _, err := d.Alloc.weights(fd.labels, capped, fd.sd(d.Alloc), func() ([]float64, error) { return fd.priorOf(d.Alloc) })
 	if err != nil {
 		return nil, err
 	}
@@ -76,11 +83,24 @@ func TopUp(f *Frame, d Design, prev []Drawn, n int, seed uint64) (*Result, error
 	if n > avail {
 		return nil, &AllocationError{Msg: fmt.Sprintf("top-up of %d exceeds the %d undrawn units of the thinned strata", n, avail)}
 	}
-	alloc, warns, err := Allocate(fd.labels, room, w, n, 0)
+	var ad *adaptive
+	var alloc []int
+	var warns []Warning
+	if est != nil {
+		ad, warns, err = planAdaptive(fd, d.Alloc, n1, room, w, n, est)
+		alloc = ad.alloc
+	} else {
+		alloc, warns, err = Allocate(fd.labels, room, w, n, 0)
+	}
 	if err != nil {
 		return nil, err
 	}
 	res := &Result{Warnings: append(append([]Warning(nil), fd.st.Warnings...), warns...)}
+	res.Phase = PhaseRecord{Phase: maxPhase + 1, N: n, Method: d.Alloc.Method.String(),
+		Why: "the design's allocation on the undrawn units; union of phases is one simple random sample per stratum", Allocation: byLabel(fd.labels, alloc)}
+	if ad != nil {
+		res.Phase = ad.record(maxPhase+1, n, fd.labels)
+	}
 	rng := rand.New(rand.NewPCG(seed, streamPhase+uint64(maxPhase+1)))
 	var fresh []Drawn
 	for h, pool := range fd.pool {
@@ -110,6 +130,10 @@ func TopUp(f *Frame, d Design, prev []Drawn, n int, seed uint64) (*Result, error
 	}
 	for i, j := range rng.Perm(len(fresh)) {
 		fresh[i].Order = maxOrder + j + 1
+	}
+	if ad != nil {
+		ad.reweight(fd, res.Drawn, old, maxPhase+1)
+		ad.reweight(fd, fresh, old, maxPhase+1)
 	}
 	res.Drawn = append(append(res.Drawn, fresh...), controls...)
 	sort.SliceStable(res.Drawn, func(i, j int) bool { return res.Drawn[i].Order < res.Drawn[j].Order })

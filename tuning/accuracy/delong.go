@@ -24,9 +24,11 @@ import (
 // Tz, Tx, Ty the midranks within the pooled, positive and negative scores.
 //
 // Design weights are not supported: DeLong's variance is a U-statistic
-// result for simple random samples. The variance is NaN when a class has
-// fewer than two members (the AUC is NaN when a class is empty). DeLong
-// panics on mismatched lengths or NaN scores.
+// result for simple random samples. Events are taken as independent; for
+// events clustered in subjects use DeLongClustered (Obuchowski 1997). The
+// variance is NaN when a class has fewer than two members (the AUC is NaN
+// when a class is empty). DeLong panics on mismatched lengths or NaN
+// scores.
 func DeLong(scores []float64, truth []bool) (auc, variance float64) {
 	c := placements(scores, truth)
 	return c.auc, c.s10/float64(len(c.v10)) + c.s01/float64(len(c.v01))
