@@ -23,9 +23,9 @@ import (
 )
 
 type tuneFlags struct {
-	reference, policy string
-	folds, bootstrap  int
-	seed              uint64
+	reference, policy, method string
+	folds, bootstrap          int
+	seed                      uint64
 }
 
 func newTuneCmd(g *globals) *cobra.Command {
@@ -78,6 +78,7 @@ tuning/report.md.`,
 	fl.StringVar(&f.policy, "policy", "", "operating-point policy (default: study.yaml)")
 	fl.IntVar(&f.folds, "folds", 0, "subject-grouped cross-validation folds")
 	fl.IntVar(&f.bootstrap, "bootstrap", 0, "subject bootstrap replicates")
+	fl.StringVar(&f.method, "method", tuning.MethodCriterion, "how the automatic rule is fitted: "+tuning.MethodCriterion+" (each cutoff against its criterion's panel majority, then k) or "+tuning.MethodJoint+" (six cutoffs and k searched together)")
 	fl.Uint64Var(&f.seed, "seed", 0, "random seed (default: study.yaml seed)")
 	return cmd
 }
@@ -173,7 +174,7 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 		hours += r.DurationS / 3600
 	}
 	res, err := tuning.Run(ctx, tuning.Options{Events: events, RecordingHours: hours, Policy: pol,
-		Folds: f.folds, Bootstrap: f.bootstrap, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
+		Folds: f.folds, Bootstrap: f.bootstrap, Method: f.method, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
 	if err != nil {
 		return err
 	}
@@ -204,9 +205,13 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	}
 	fp := res.Final
 	fmt.Fprintf(g.stdout, "Operating point (%s, chosen by %s against the %s):\n  %s\n", fp.Analysis, fp.Policy, refName, fp.Rule)
+	if h := fp.Headline; h != nil {
+		fmt.Fprintf(g.stdout, "  to expect on new recordings: sensitivity %s, specificity %s, PPV %s, false detections per hour %s\n  (%.0f %% intervals; %s)\n",
+			estimate(h.Sens), estimate(h.Spec), estimate(h.PPV), estimate(h.FalsePerHour), 100*res.Level, h.Method)
+	}
 	m := fp.InSample
-	fmt.Fprintf(g.stdout, "  sensitivity %s, specificity %s, PPV %s (design-weighted, %.0f %% intervals)\n",
-		estimate(m.Design.Sens), estimate(m.Design.Spec), estimate(m.Design.PPV), 100*res.Level)
+	fmt.Fprintf(g.stdout, "  in sample, optimistic (the rule was chosen on these events): sensitivity %s, specificity %s, PPV %s (design-weighted)\n",
+		estimate(m.Design.Sens), estimate(m.Design.Spec), estimate(m.Design.PPV))
 	fmt.Fprintf(g.stdout, "Report: %s\n", s.Path(study.TuningDir, "report.html"))
 	return g.finish(len(res.Warnings))
 }
@@ -221,6 +226,13 @@ func decisionCode(d string) int8 {
 	return -1
 }
 
+// estimate prints a figure with its interval, or says there is none.
 func estimate(e tuning.Estimate) string {
+	if math.IsNaN(e.Value) {
+		return "undefined"
+	}
+	if math.IsNaN(e.Lo) || math.IsNaN(e.Hi) {
+		return fmt.Sprintf("%.2f (no interval: see the notes)", e.Value)
+	}
 	return fmt.Sprintf("%.2f (%.2f–%.2f)", e.Value, e.Lo, e.Hi)
 }

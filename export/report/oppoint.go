@@ -73,6 +73,54 @@ type BootstrapJSON struct {
 	FalsePerHour Interval `json:"false_detections_per_hour"`
 }
 
+// HeadlineJSON is the operating point's headline: the figures to expect on
+// new recordings, corrected for the selection (tuning.Headline).
+type HeadlineJSON struct {
+	Method       string   `json:"method"`
+	Replicates   int      `json:"replicates"`
+	Sensitivity  Interval `json:"sensitivity"`
+	Specificity  Interval `json:"specificity"`
+	PPV          Interval `json:"ppv"`
+	FalsePerHour Interval `json:"false_per_hour"`
+	Notes        []string `json:"notes"`
+}
+
+func headlineJSON(h *tuning.Headline) *HeadlineJSON {
+	if h == nil {
+		return nil
+	}
+	n := h.Notes
+	if n == nil {
+		n = []string{}
+	}
+	return &HeadlineJSON{h.Method, h.Replicates, iv(h.Sens), iv(h.Spec), iv(h.PPV), iv(h.FalsePerHour), n}
+}
+
+// AlternativeJSON is the rule the other fitting method chooses, for comparison.
+type AlternativeJSON struct {
+	Method   string        `json:"fit_method"`
+	Rule     string        `json:"rule"`
+	K        int           `json:"k"`
+	Cutoffs  []CutoffJSON  `json:"cutoffs"`
+	Headline *HeadlineJSON `json:"headline"`
+	InSample MetricsJSON   `json:"in_sample_optimistic"`
+}
+
+func cutoffsJSON(cs [6]tuning.Cutoff) []CutoffJSON {
+	var out []CutoffJSON
+	for _, c := range cs {
+		met := "left out"
+		switch c.Direction {
+		case 1:
+			met = ">="
+		case -1:
+			met = "<="
+		}
+		out = append(out, CutoffJSON{c.Criterion, c.Feature, met, jsonx.Float(c.Value)})
+	}
+	return out
+}
+
 // CutoffJSON is one criterion's cutoff.
 type CutoffJSON struct {
 	Criterion int         `json:"criterion"`
@@ -89,6 +137,7 @@ type OperatingPoint struct {
 	ReferenceStandard string            `json:"reference_standard"`
 	Policy            string            `json:"policy"`
 	Analysis          string            `json:"analysis"`
+	Method            string            `json:"fit_method"`
 	Rule              string            `json:"rule"`
 	K                 int               `json:"k"`
 	Cutoffs           []CutoffJSON      `json:"cutoffs"`
@@ -97,6 +146,8 @@ type OperatingPoint struct {
 	RecordingHours    jsonx.Float       `json:"recording_hours"`
 	Level             jsonx.Float       `json:"confidence_level"`
 	Seed              string            `json:"seed"`
+	Headline          *HeadlineJSON     `json:"headline"`
+	Alternative       *AlternativeJSON  `json:"alternative"`
 	InSample          MetricsJSON       `json:"in_sample"`
 	CrossValidated    *MetricsJSON      `json:"cross_validated"`
 	Bootstrap         *BootstrapJSON    `json:"bootstrap"`
@@ -126,15 +177,9 @@ func NewOperatingPoint(res *tuning.Result, meta Meta) OperatingPoint {
 	if op.Warnings == nil {
 		op.Warnings = []string{}
 	}
-	for _, c := range f.Cutoffs {
-		met := "left out"
-		switch c.Direction {
-		case 1:
-			met = ">="
-		case -1:
-			met = "<="
-		}
-		op.Cutoffs = append(op.Cutoffs, CutoffJSON{c.Criterion, c.Feature, met, jsonx.Float(c.Value)})
+	op.Method, op.Headline, op.Cutoffs = f.Method, headlineJSON(f.Headline), cutoffsJSON(f.Cutoffs)
+	if a := res.Alternative; a != nil {
+		op.Alternative = &AlternativeJSON{a.Method, a.Rule, a.K, cutoffsJSON(a.Cutoffs), headlineJSON(a.Headline), metrics(a.InSample)}
 	}
 	if f.CV != nil {
 		m := metrics(f.CV.Metrics)
