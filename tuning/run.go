@@ -96,7 +96,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 
 	method := o.Method
 	if method == "" {
-		method = MethodCriterion
+		method = MethodJoint
 	}
 	f, fw, err := fitRule(s, method, o.Policy)
 	for _, w := range fw {

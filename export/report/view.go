@@ -17,6 +17,8 @@ type view struct {
 	Res       *tuning.Result
 	Policy    string
 	Headline  []figureRow
+	Expect    expectTable
+	ExpectWhy string
 	Cutoffs   []string
 	Confusion [2][4]string // unweighted, weighted: TP FP FN TN
 	KRows     [][]string
@@ -30,7 +32,7 @@ type view struct {
 
 func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 	v := view{Caution: Caution, Meta: meta, Generated: meta.Generated.UTC().Format(time.RFC3339), Res: res,
-		Policy: res.Policy.String(), Headline: headline(res)}
+		Policy: res.Policy.String(), Headline: headline(res), Expect: expect(res), ExpectWhy: expectExplain}
 	f := res.Final
 	for _, c := range f.Cutoffs {
 		v.Cutoffs = append(v.Cutoffs, fmt.Sprintf("c%d: %s", c.Criterion, c.String()))
