@@ -59,4 +59,7 @@ type Controls struct {
 	Rated         int      // controls with a reference
 	IEDs          int      // of which the reference calls IED
 	MissedPerHour Estimate // design-weighted IEDs per recording hour outside the candidates
+	// Warning says when MissedPerHour rests on fewer than five controls
+	// called IED; empty otherwise.
+	Warning string
 }

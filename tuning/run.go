@@ -76,6 +76,9 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	}
 
 	res.Controls = controlSummary(s, o.Level)
+	if res.Controls.Warning != "" {
+		warn("%s", res.Controls.Warning)
+	}
 	res.KSweep = kSweep(s, &o, o.Level)
 	res.Subsets = subsetAnalysis(s, folds, o.Level)
 	for j := range 6 {

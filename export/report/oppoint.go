@@ -161,6 +161,7 @@ type ControlsJSON struct {
 	Rated         int      `json:"rated"`
 	IEDs          int      `json:"ieds"`
 	MissedPerHour Interval `json:"missed_ieds_per_hour"`
+	Warning       string   `json:"warning,omitempty"`
 }
 
 // NewOperatingPoint assembles operating-point.json from a result.
@@ -172,7 +173,7 @@ func NewOperatingPoint(res *tuning.Result, meta Meta) OperatingPoint {
 		Events: res.Events, Subjects: res.Subjects, RecordingHours: jsonx.Float(res.RecordingHours),
 		Level: jsonx.Float(res.Level), Seed: strconv.FormatUint(res.Seed, 10),
 		InSample: metrics(f.InSample), InputHashes: meta.InputHashes, Warnings: res.Warnings,
-		Controls: ControlsJSON{res.Controls.Rated, res.Controls.IEDs, iv(res.Controls.MissedPerHour)},
+		Controls: ControlsJSON{res.Controls.Rated, res.Controls.IEDs, iv(res.Controls.MissedPerHour), res.Controls.Warning},
 	}
 	if op.Warnings == nil {
 		op.Warnings = []string{}

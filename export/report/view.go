@@ -88,8 +88,11 @@ func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 	}
 	if c := res.Controls; c.Rated > 0 {
 		line := fmt.Sprintf("The panel rated %d background controls (epochs drawn at random away from every candidate, kept out of the figures above) and called %d of them IEDs: IEDs the finder missed.", c.Rated, c.IEDs)
-		if !math.IsNaN(c.MissedPerHour.Value) {
-			line += fmt.Sprintf(" Projected to the archive: %s missed IEDs per hour of recording.", numCI(c.MissedPerHour))
+		if !math.IsNaN(c.MissedPerHour.Lo) {
+			line += fmt.Sprintf(" Projected to the archive: %s missed IEDs per hour of recording, carried by %d control(s).", numCI(c.MissedPerHour), c.IEDs)
+		}
+		if c.Warning != "" {
+			line += " Caution: " + c.Warning + "."
 		}
 		v.Score = append(v.Score, line)
 	}
