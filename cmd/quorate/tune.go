@@ -107,14 +107,6 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	if err != nil {
 		return err
 	}
-	byEvent := make(map[string]*consensus.Event, len(evs))
-	for i := range evs {
-		byEvent[evs[i].EventID] = &evs[i]
-	}
-	byCand := make(map[string]*candidate.Row, len(cands))
-	for i := range cands {
-		byCand[cands[i].EventID] = &cands[i]
-	}
 	var external map[string]int8
 	refName := "panel majority verdict"
 	switch {
@@ -135,40 +127,14 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	case f.reference != "panel":
 		return usageError{fmt.Errorf("--reference: got %q, want panel, dawid-skene or external:FILE", f.reference)}
 	}
-	var events []tuning.Event
-	for _, r := range rows {
-		ce := byEvent[r.EventID]
-		if ce == nil {
-			continue // not rated (yet)
-		}
-		e := tuning.Event{EventID: r.EventID, Subject: r.SubjectKey, Recording: r.RecordingID, Stratum: r.Stratum,
-			Kind: r.Kind, Weight: r.Weight, Score: math.NaN()}
-		for i := range e.Features {
-			e.Features[i] = math.NaN()
-		}
-		if c := byCand[r.EventID]; c != nil {
-			e.Features, e.AutoMet, e.Score = c.Features(), c.Met(), c.Score
-			if strings.HasPrefix(c.Source, "import:") {
-				e.Score = c.Imported
-			}
-		}
-		for q, d := range ce.Decisions() {
-			e.Majority[q] = decisionCode(d)
-		}
-		switch {
-		case external != nil:
-			v, ok := external[r.EventID]
-			e.Reference = -1
-			if ok {
-				e.Reference = v
-			}
-		case f.reference == "dawid-skene":
-			e.Reference = tuning.ReferenceFromDS(ce.DSProbability)
-		default:
-			e.Reference = tuning.ReferenceFromPanel(ce.Verdict)
-		}
-		events = append(events, e)
+	kind := tuning.ReferencePanel
+	switch {
+	case external != nil:
+		kind = tuning.ReferenceExternal
+	case f.reference == "dawid-skene":
+		kind = tuning.ReferenceDawidSkene
 	}
+	events := tuning.Join(rows, evs, cands, kind, external)
 	hours := 0.0
 	for _, r := range recs {
 		hours += r.DurationS / 3600
@@ -214,16 +180,6 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 		estimate(m.Design.Sens), estimate(m.Design.Spec), estimate(m.Design.PPV))
 	fmt.Fprintf(g.stdout, "Report: %s\n", s.Path(study.TuningDir, "report.html"))
 	return g.finish(len(res.Warnings))
-}
-
-func decisionCode(d string) int8 {
-	switch d {
-	case "present":
-		return 1
-	case "absent":
-		return 0
-	}
-	return -1
 }
 
 // estimate prints a figure with its interval, or says there is none.
