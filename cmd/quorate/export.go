@@ -115,7 +115,7 @@ func runExport(g *globals, s *study.Study, f *exportFlags) error {
 			}
 		}
 		if len(dec) > 0 {
-			o.OperatingPoint = &export.OPDecision{Rule: op.Rule, Decision: dec}
+			o.OperatingPoint = &export.OPDecision{Rule: op.Rule, Headline: op.HeadlineWords(), Decision: dec}
 		}
 	}
 	if f.reference != "" {

@@ -1,7 +1,10 @@
 package report
 
 import (
+	"fmt"
+	"math"
 	"strconv"
+	"strings"
 	"time"
 
 	"github.com/quorate-eeg/quorate/internal/jsonx"
@@ -94,6 +97,25 @@ func headlineJSON(h *tuning.Headline) *HeadlineJSON {
 		n = []string{}
 	}
 	return &HeadlineJSON{h.Method, h.Replicates, iv(h.Sens), iv(h.Spec), iv(h.PPV), iv(h.FalsePerHour), n}
+}
+
+// HeadlineWords is the headline in one line of words ("sensitivity 0.63
+// (0.40–0.83), …"), or "" when there is none.
+func (op *OperatingPoint) HeadlineWords() string {
+	h := op.Headline
+	if h == nil {
+		return ""
+	}
+	f := func(name string, v Interval) string {
+		switch {
+		case math.IsNaN(float64(v.Value)):
+			return name + " undefined"
+		case math.IsNaN(float64(v.Lo)):
+			return fmt.Sprintf("%s %.2f (no interval)", name, float64(v.Value))
+		}
+		return fmt.Sprintf("%s %.2f (%.2f–%.2f)", name, float64(v.Value), float64(v.Lo), float64(v.Hi))
+	}
+	return strings.Join([]string{f("sensitivity", h.Sensitivity), f("specificity", h.Specificity), f("PPV", h.PPV), f("false detections per hour", h.FalsePerHour)}, ", ")
 }
 
 // AlternativeJSON is the rule the other fitting method chooses, for comparison.
