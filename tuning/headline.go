@@ -23,8 +23,8 @@ const minHeadlineSubjects = 5
 // and false detections per hour, corrected for the optimism of having been
 // chosen on the same events.
 //
-// Method (Harrell, Lee & Mark 1996, Stat Med 15:361–387, §5.3; Efron &
-// Tibshirani 1993, An Introduction to the Bootstrap, §17.6): each replicate
+// Method (Harrell, Lee & Mark 1996, Stat Med 15:361–387; Efron &
+// Tibshirani 1993, An Introduction to the Bootstrap, ch. 17): each replicate
 // draws as many subjects as there are, with replacement, keeping the design
 // weights of their events, and repeats the whole selection on them (every
 // cutoff, k, the policy). The fitted rule's apparent figure on the drawn
@@ -34,7 +34,7 @@ const minHeadlineSubjects = 5
 // and the replicate as a study drawn from it, d_b is the error that study
 // makes in judging its own chosen rule, so the interval is the basic
 // bootstrap interval [A − q(1−α/2), A − q(α/2)] of the d_b (Davison &
-// Hinkley 1997, §5.2.1), clipped to the figure's range. It carries both the
+// Hinkley 1997, Bootstrap Methods and their Application, §5.2), clipped to the figure's range. It carries both the
 // sampling error of the estimate and the spread of the selection.
 //
 // Rates are undefined (NaN) in a replicate with an empty denominator; such

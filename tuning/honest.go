@@ -20,8 +20,8 @@ import (
 // weighted counts; FalsePerHour divides by the full recording hours, the
 // resample standing for the same archive. The rule is not re-selected in
 // each replicate, so these intervals show sampling variability of the
-// chosen point, not of the choice (the cross-validated figures address
-// that). Percentiles are the order statistics at ranks ⌈αB⌉ and ⌈(1−α)B⌉,
+// chosen point, not of the choice, and are centred on its optimistic
+// in-sample figure (Headline repeats the choice). Percentiles are the order statistics at ranks ⌈αB⌉ and ⌈(1−α)B⌉,
 // α = (1−level)/2, among the replicates where the figure is defined.
 type BootstrapIntervals struct {
 	Replicates      int

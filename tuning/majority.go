@@ -11,11 +11,12 @@ import (
 const (
 	// MethodCriterion fits each criterion's cutoff against that criterion's
 	// own panel majority, the label the feature is meant to reproduce, by
-	// design-weighted Youden's J (Youden 1950, Cancer 3:32–35), one threshold
-	// per feature; only k is then chosen against the reference standard by
-	// the policy. Seven choices see the verdict's labels instead of the
-	// joint search's dozens, so the in-sample figures are far less
-	// optimistic (Harrell 2015, Regression Modeling Strategies, §4.1).
+	// a stated rule read off the criterion's ROC (criterionTargets), one
+	// threshold per feature; only k and the shared rule (24 choices) are
+	// then chosen against the reference standard by the policy, instead of
+	// the joint search's dozens of choices (Harrell 2015, Regression
+	// Modeling Strategies, 2nd ed., ch. 4, on spending fewer degrees of
+	// freedom; from memory).
 	MethodCriterion = "criterion-majority"
 	// MethodJoint is the joint search of AutoRule: six cutoffs and k chosen
 	// together against the reference standard.
