@@ -5,6 +5,9 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"runtime"
+	"sync"
+	"sync/atomic"
 
 	"github.com/quorate-eeg/quorate/internal/progress"
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
@@ -75,30 +78,61 @@ func headline(ctx context.Context, s *evset, f *autoFit, method string, p accura
 	h := &Headline{Method: HeadlineMethod, Replicates: B}
 	hit := f.decide(s)
 	app := figures(s, hit)
+	// The resamples are drawn in order from one seeded stream, then fitted
+	// in parallel; each replicate's result has its own slot, so the output
+	// does not depend on scheduling.
 	rng := rand.New(rand.NewPCG(seed, 0x68656164)) // "head"
-	var d [4][]float64
-	for b := range B {
-		if b%20 == 0 {
-			if err := ctx.Err(); err != nil {
-				return nil, err
+	draws := make([][]int, B)
+	for b := range draws {
+		draws[b] = accuracy.ClusterResample(s.subject, rng)
+	}
+	type rep struct {
+		d  [4]float64
+		ok bool
+	}
+	reps := make([]rep, B)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	var mu sync.Mutex
+	for range max(1, min(runtime.GOMAXPROCS(0), B)) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				b := int(next.Add(1)) - 1
+				if b >= B || ctx.Err() != nil {
+					return
+				}
+				sb := s.subset(draws[b])
+				// A resample on which no rule can be fitted (a one-sided
+				// majority everywhere) says nothing about optimism.
+				if fb, _, _ := fitRule(sb, method, p); fb != nil {
+					ab, ob := figures(sb, fb.decide(sb)), figures(s, fb.decide(s))
+					for m := range 4 {
+						reps[b].d[m] = ab[m] - ob[m]
+					}
+					reps[b].ok = true
+				}
+				mu.Lock()
+				bar.Add(1)
+				mu.Unlock()
 			}
-		}
-		sb := s.subset(accuracy.ClusterResample(s.subject, rng))
-		fb, _, err := fitRule(sb, method, p)
-		if fb == nil {
-			// No rule could be fitted on this resample (a one-sided
-			// majority everywhere): it says nothing about optimism.
-			_ = err
-			bar.Add(1)
+		}()
+	}
+	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	var d [4][]float64
+	for _, r := range reps {
+		if !r.ok {
 			continue
 		}
-		ab, ob := figures(sb, fb.decide(sb)), figures(s, fb.decide(s))
 		for m := range 4 {
-			if x := ab[m] - ob[m]; !math.IsNaN(x) {
-				d[m] = append(d[m], x)
+			if !math.IsNaN(r.d[m]) {
+				d[m] = append(d[m], r.d[m])
 			}
 		}
-		bar.Add(1)
 	}
 	out := [4]*Estimate{&h.Sens, &h.Spec, &h.PPV, &h.FalsePerHour}
 	upper := [4]float64{1, 1, 1, math.Inf(1)}
