@@ -46,3 +46,31 @@ func TestHeadlineLessOptimistic(t *testing.T) {
 		t.Errorf("headline bias %+.3f not smaller than in-sample bias %+.3f", biasHead, biasIn)
 	}
 }
+
+// Where the sample cannot support an interval the headline withholds it and says why,
+// instead of printing a collapsed [1, 1]: too few subjects to resample (common practice:
+// at least five), or no missed IED in the sample.
+func TestHeadlineWithholdsUnsupportedIntervals(t *testing.T) {
+	ev := simulate(rand.New(rand.NewPCG(7, 3)), 3, 60, 1.5)
+	res, err := Run(context.Background(), Options{Events: ev, RecordingHours: 10, Policy: accuracy.Policy{Kind: accuracy.Youden},
+		Bootstrap: -1, HeadlineReplicates: 30, Seed: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	h := res.Final.Headline
+	if !math.IsNaN(h.Sens.Lo) || !math.IsNaN(h.Spec.Hi) || math.IsNaN(h.Sens.Value) || len(h.Notes) == 0 {
+		t.Errorf("3 subjects: headline %+v, want point estimates, no intervals, and a note", h)
+	}
+	ev = simulate(rand.New(rand.NewPCG(8, 3)), 10, 20, 6) // features far apart: nothing missed
+	res, err = Run(context.Background(), Options{Events: ev, RecordingHours: 10, Policy: accuracy.Policy{Kind: accuracy.MinSensitivity, Value: 0.999},
+		Bootstrap: -1, HeadlineReplicates: 30, Seed: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Final.InSample.Counts.FN != 0 {
+		t.Fatalf("test set-up: the rule missed %v IEDs", res.Final.InSample.Counts.FN)
+	}
+	if h := res.Final.Headline; !math.IsNaN(h.Sens.Lo) || len(h.Notes) == 0 {
+		t.Errorf("no missed IED: sensitivity %+v, notes %q; want no interval and a note", h.Sens, h.Notes)
+	}
+}
