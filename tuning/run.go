@@ -32,7 +32,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		o.Bootstrap = 2000
 	}
 	if o.HeadlineReplicates == 0 {
-		o.HeadlineReplicates = 500
+		o.HeadlineReplicates = 200
 	}
 	if o.ReferenceName == "" {
 		o.ReferenceName = "reference standard"
