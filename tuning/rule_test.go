@@ -84,6 +84,26 @@ func TestPrintedRulesReproduceCounts(t *testing.T) {
 		if a := res.Alternative; a != nil {
 			check(a.Rule, a.InSample.Counts)
 		}
+		// Each criterion's cutoff, printed and read back, gives its counts against
+		// the criterion's own panel majority.
+		for _, c := range res.Criteria {
+			if c.Skipped != "" {
+				continue
+			}
+			cut, _ := strconv.ParseFloat(strconv.FormatFloat(c.Cutoff, 'g', -1, 64), 64)
+			var met, maj []bool
+			for _, e := range rated {
+				x := e.Features[c.Criterion-1]
+				if e.Majority[c.Criterion-1] == -1 {
+					continue
+				}
+				met = append(met, (c.Direction > 0 && x >= cut) || (c.Direction < 0 && x <= cut))
+				maj = append(maj, e.Majority[c.Criterion-1] == 1)
+			}
+			if got := accuracy.Tally(met, maj, nil); got != c.AtCutoff.Counts {
+				t.Errorf("c%d cutoff %v read back gives %+v, reported %+v", c.Criterion, c.Cutoff, got, c.AtCutoff.Counts)
+			}
+		}
 		for _, r := range res.Final.CV.FoldRules {
 			applyPrinted(t, r, ev) // fold rules read back too
 		}

@@ -3,6 +3,7 @@ package report
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"time"
 
 	"github.com/quorate-eeg/quorate/panel/consensus"
@@ -61,7 +62,7 @@ func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 			dir = "≤"
 		}
 		v.Criteria = append(v.Criteria, []string{fmt.Sprintf("c%d", c.Criterion), c.Feature, fmt.Sprintf("%d (%d present)", c.N, c.Present),
-			numCI(c.AUC), dir + " " + num(c.Cutoff), pct(c.AtCutoff.Weighted.Sensitivity()), pct(c.AtCutoff.Weighted.Specificity()), ""})
+			numCI(c.AUC), dir + " " + strconv.FormatFloat(c.Cutoff, 'g', -1, 64), pct(c.AtCutoff.Weighted.Sensitivity()), pct(c.AtCutoff.Weighted.Specificity()), ""})
 	}
 	for i, a := range res.Auto.ByK {
 		mark := ""
