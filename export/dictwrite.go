@@ -10,14 +10,23 @@ import (
 
 // Dictionary is what data-dictionary.md and schema.json say about an export.
 type Dictionary struct {
-	Format         string  `json:"format"`
-	Missing        string  `json:"missing_value"` // how a missing value is written in text tables
-	DatesShifted   bool    `json:"dates_shifted"`
-	OperatingPoint string  `json:"operating_point_rule,omitempty"`
-	EpochWindowS   float64 `json:"epoch_window_s,omitempty"`
-	EpochMontage   string  `json:"epoch_montage,omitempty"`
-	Tables         []Table `json:"tables"`
+	Format         string `json:"format"`
+	Missing        string `json:"missing_value"` // how a missing value is written in text tables
+	DatesShifted   bool   `json:"dates_shifted"`
+	OperatingPoint string `json:"operating_point_rule,omitempty"`
+	// OperatingPointHeadline is the rule's figures to expect on new recordings.
+	OperatingPointHeadline string  `json:"operating_point_headline,omitempty"`
+	EpochWindowS           float64 `json:"epoch_window_s,omitempty"`
+	EpochMontage           string  `json:"epoch_montage,omitempty"`
+	Tables                 []Table `json:"tables"`
 }
+
+// HeadlineExplained says in plain words what an operating point's headline
+// figures are.
+const HeadlineExplained = "The rule was chosen on the rated events, so its figures on those events flatter it. " +
+	"The headline repeats the whole choice on subjects drawn again at random from the study, measures how much each repeat flattered its own choice, " +
+	"and takes that average flattery off; the interval is the range those repeats make plausible (optimism-corrected bootstrap, Harrell, Lee & Mark 1996). " +
+	"Figures are design-weighted: they describe the archive, not the enriched sample."
 
 func writeSchemaJSON(w io.Writer, d *Dictionary) error {
 	enc := json.NewEncoder(w)
@@ -47,6 +56,9 @@ func writeDictionaryMD(w io.Writer, d *Dictionary) error {
 	}
 	if d.OperatingPoint != "" {
 		fmt.Fprintf(&b, "\nThe operating point in `op_decision` is the rule `%s`.\n", d.OperatingPoint)
+		if d.OperatingPointHeadline != "" {
+			fmt.Fprintf(&b, "\nTo expect of it on new recordings like these: %s. %s\n", d.OperatingPointHeadline, HeadlineExplained)
+		}
 	}
 	if d.EpochMontage != "" {
 		fmt.Fprintf(&b, "\nEpochs are %g s windows centred on each event, in the %s montage.\n", d.EpochWindowS, d.EpochMontage)

@@ -30,7 +30,10 @@ type DrawInfo struct {
 
 // OPDecision is a tuned operating point's decision per event id.
 type OPDecision struct {
-	Rule     string
+	Rule string
+	// Headline is what to expect of the rule on new recordings, in words
+	// (operating-point.json's "headline"); empty when not given.
+	Headline string
 	Decision map[string]bool
 }
 

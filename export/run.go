@@ -77,7 +77,7 @@ func write(ctx context.Context, o *Options, dir string, kind montage.Kind, event
 
 	dict := &Dictionary{Format: o.Format, Missing: map[string]string{"parquet": "null", "csv": "empty cell", "bids": "n/a"}[o.Format], DatesShifted: o.ShiftDates}
 	if o.OperatingPoint != nil {
-		dict.OperatingPoint = o.OperatingPoint.Rule
+		dict.OperatingPoint, dict.OperatingPointHeadline = o.OperatingPoint.Rule, o.OperatingPoint.Headline
 	}
 	switch o.Format {
 	case "parquet":

@@ -27,9 +27,9 @@ type Cutoff struct {
 func (c Cutoff) String() string {
 	switch c.Direction {
 	case 1:
-		return fmt.Sprintf("%s ≥ %.4g", c.Feature, c.Value)
+		return c.Feature + " ≥ " + formatCut(c.Value)
 	case -1:
-		return fmt.Sprintf("%s ≤ %.4g", c.Feature, c.Value)
+		return c.Feature + " ≤ " + formatCut(c.Value)
 	}
 	return c.Feature + " left out"
 }
@@ -60,6 +60,7 @@ type AutoCandidate struct {
 // cutoff, and the rest are misses. The policy then picks k among the six
 // results (ties to the larger k). Rates are design-weighted.
 type AutoRule struct {
+	Method  string          // MethodCriterion or MethodJoint
 	ByK     []AutoCandidate // K = 1…6
 	Chosen  int             // index into ByK
 	K       int
@@ -241,7 +242,7 @@ func fitAuto(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
 					sp += hp[gg+1]
 					sn += hn[gg+1]
 					sc += hc[gg+1]
-					cs[gg] = accuracy.Confusion{TP: ap + sp, FP: an + sn, FN: totPos - ap - sp, TN: totNeg - an - sn}
+					cs[gg] = accuracy.Confusion{TP: ap + sp, FP: an + sn, FN: accuracy.Remainder(totPos, ap+sp), TN: accuracy.Remainder(totNeg, an+sn)}
 					fcs[gg] = ac + sc
 				}
 				for gg := range grid {
@@ -286,7 +287,19 @@ func fitAuto(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
 		bk.point, bk.w, bk.fp = best, bestW, bestFP
 		kpts[k-1] = best
 	}
-	idx, err := accuracy.Choose(kpts[:], p)
+	for k := range f.byK {
+		placeCuts(s, f, &f.byK[k].cut)
+	}
+	idx, err := chooseK(kpts[:], p)
+	f.k = idx + 1
+	f.cut = f.byK[idx].cut
+	return f, warn, err
+}
+
+// chooseK picks among the six "at least k" points by the policy; when none
+// satisfies it, the nearest, with the *accuracy.NoPointError.
+func chooseK(kpts []accuracy.Point, p accuracy.Policy) (int, error) {
+	idx, err := accuracy.Choose(kpts, p)
 	if err != nil {
 		var npe *accuracy.NoPointError
 		idx = 0
@@ -294,7 +307,5 @@ func fitAuto(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
 			idx = npe.Index[0]
 		}
 	}
-	f.k = idx + 1
-	f.cut = f.byK[idx].cut
-	return f, warn, err
+	return idx, err
 }

@@ -1,11 +1,17 @@
 package tuning
 
 import (
+	"fmt"
 	"math"
 
 	"github.com/quorate-eeg/quorate/sampling/design"
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
 )
+
+// minCarrying is the fewest controls called IED for which the missed-IED rate
+// is given without a warning: below five events a count's relative standard
+// error exceeds 45 % (√5/5; common practice for Poisson counts).
+const minCarrying = 5
 
 // controlSummary projects the IEDs the finder missed from the background controls:
 // Ŷ/H with Ŷ = Σ w·[reference IED] over the controls (a Horvitz–Thompson total; Horvitz
@@ -41,5 +47,9 @@ func controlSummary(s *evset, level float64) Controls {
 	M := w[0] * float64(c.Rated)
 	lo, hi := accuracy.Wilson(float64(c.IEDs), float64(c.Rated), level)
 	c.MissedPerHour = Estimate{r.Value, lo * M / s.hours, hi * M / s.hours}
+	if c.IEDs < minCarrying {
+		c.Warning = fmt.Sprintf("missed IEDs per hour (%.3g, interval %.3g–%.3g) rests on %d of %d background controls called IED by the panel: each such control moves it by %.3g per hour, and one chance majority makes or unmakes it; read the interval, not the value",
+			r.Value, c.MissedPerHour.Lo, c.MissedPerHour.Hi, c.IEDs, c.Rated, w[0]/s.hours)
+	}
 	return c
 }

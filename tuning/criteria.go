@@ -134,7 +134,18 @@ func criterionROC(s *evset, j int, level float64) (CriterionROC, criterionFit) {
 	r.AUC = Estimate{auc, lo, hi}
 	r.WeightedAUC = countsAUC(f.weighed)
 	r.Direction = int(f.dir)
+	// The cutoff sits in the gap below the Youden threshold (gapCut), so it
+	// reads back to the same decisions however it is printed.
+	below := math.Inf(-1)
+	for _, v := range x {
+		if v < f.cut {
+			below = math.Max(below, v)
+		}
+	}
 	r.Cutoff = f.dir * f.cut
+	if !math.IsInf(f.cut, 0) {
+		r.Cutoff = f.dir * gapCut(below, f.cut)
+	}
 	for i := range f.th {
 		r.Curve = append(r.Curve, Point{Rule: r.Feature, Threshold: f.dir * f.th[i], Counts: f.plain[i], Weighted: f.weighed[i], FalsePerHour: math.NaN()})
 	}

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"math"
 	"os"
+	"strings"
 	"testing"
 
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
@@ -133,6 +134,10 @@ func TestControlSummary(t *testing.T) {
 	hi := (1 + z*z/2 + z*math.Sqrt(0.75+z*z/4)) / (4 + z*z)
 	if math.Abs(c.MissedPerHour.Lo-lo*8) > 1e-6 || math.Abs(c.MissedPerHour.Hi-hi*8) > 1e-6 {
 		t.Errorf("interval %v–%v, want %v–%v", c.MissedPerHour.Lo, c.MissedPerHour.Hi, lo*8, hi*8)
+	}
+	// One control carries the figure: each moves it by w/H = 10/5 per hour.
+	if !strings.Contains(c.Warning, "rests on 1 of 4") || !strings.Contains(c.Warning, "by 2 per hour") {
+		t.Errorf("no warning that one control carries the missed-IED rate: %q", c.Warning)
 	}
 	// No IED among the controls still gives an upper bound above zero.
 	for i := range ev {

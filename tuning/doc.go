@@ -14,8 +14,20 @@
 // their stratified linearised variance (package sampling/design; Cochran 1977,
 // Sampling Techniques, §6.11) and Wald intervals. Operating points are chosen
 // on the design-weighted figures, because those describe the archive the
-// detector will run on. Because choosing a point on the same events it is
-// judged on flatters it, the whole selection is repeated inside
-// subject-grouped cross-validation, and the chosen point's figures get
-// subject-resampled bootstrap intervals.
+// detector will run on.
+//
+// Choosing a point on the same events it is judged on flatters it. The
+// headline (OperatingPoint.Headline) is what to expect on new recordings:
+// the optimism-corrected subject bootstrap (Harrell, Lee & Mark 1996),
+// which repeats the whole selection in every replicate. The in-sample
+// figures are optimistic; the subject-grouped cross-validation, which also
+// repeats the selection, tends to be pessimistic with few subjects (each
+// fold learns from fewer); the bootstrap of the final rule does not repeat
+// the selection and is centred on the optimistic figure. All are reported,
+// labelled so.
+//
+// The automatic rule "at least k criteria met at these cutoffs" is fitted
+// by the joint search (MethodJoint, the default) or with each cutoff fitted
+// to its criterion's own panel majority (MethodCriterion); the report shows
+// the other method's honest figures beside the chosen one's.
 package tuning

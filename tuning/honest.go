@@ -20,8 +20,8 @@ import (
 // weighted counts; FalsePerHour divides by the full recording hours, the
 // resample standing for the same archive. The rule is not re-selected in
 // each replicate, so these intervals show sampling variability of the
-// chosen point, not of the choice (the cross-validated figures address
-// that). Percentiles are the order statistics at ranks ⌈αB⌉ and ⌈(1−α)B⌉,
+// chosen point, not of the choice, and are centred on its optimistic
+// in-sample figure (Headline repeats the choice). Percentiles are the order statistics at ranks ⌈αB⌉ and ⌈(1−α)B⌉,
 // α = (1−level)/2, among the replicates where the figure is defined.
 type BootstrapIntervals struct {
 	Replicates      int
@@ -32,7 +32,7 @@ type BootstrapIntervals struct {
 
 // crossValidateAuto repeats the whole automatic-rule selection inside the
 // folds and returns the pooled held-out metrics.
-func crossValidateAuto(ctx context.Context, s *evset, folds [][]int, p accuracy.Policy, level float64, bar progress.Bar) (*CrossValidated, []string, error) {
+func crossValidateAuto(ctx context.Context, s *evset, folds [][]int, method string, p accuracy.Policy, level float64, bar progress.Bar) (*CrossValidated, []string, error) {
 	cv := &CrossValidated{Folds: len(folds)}
 	held := make([]bool, s.n())
 	var warn []string
@@ -40,7 +40,7 @@ func crossValidateAuto(ctx context.Context, s *evset, folds [][]int, p accuracy.
 		if err := ctx.Err(); err != nil {
 			return nil, nil, err
 		}
-		f, _, err := fitAuto(s.subset(complement(test, s.n())), p)
+		f, _, err := fitRule(s.subset(complement(test, s.n())), method, p)
 		var npe *accuracy.NoPointError
 		switch {
 		case errors.As(err, &npe):

@@ -90,7 +90,7 @@ func TestCrossValidatedNotHigher(t *testing.T) {
 	for r := range reps {
 		ev := simulate(rand.New(rand.NewPCG(uint64(100+r), 3)), 15, 20, 0.8)
 		res, err := Run(context.Background(), Options{Events: ev, RecordingHours: 50,
-			Policy: accuracy.Policy{Kind: accuracy.Youden}, Bootstrap: -1, Seed: uint64(r)})
+			Policy: accuracy.Policy{Kind: accuracy.Youden}, Bootstrap: -1, HeadlineReplicates: -1, Seed: uint64(r)})
 		if err != nil {
 			t.Fatal(err)
 		}

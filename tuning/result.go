@@ -7,11 +7,15 @@ import "github.com/quorate-eeg/quorate/tuning/accuracy"
 // in-sample, cross-validated and bootstrap figures.
 type OperatingPoint struct {
 	Analysis  string // which analysis produced the rule
+	Method    string // MethodCriterion or MethodJoint
 	Rule      string // the rule in words
 	Policy    accuracy.Policy
 	Reference string // the reference standard's name
 	K         int
 	Cutoffs   [6]Cutoff
+	// Headline is what to expect on new recordings: the figures corrected
+	// for the selection, with intervals that repeat it; nil when skipped.
+	Headline *Headline
 	// InSample are the figures on the events the rule was chosen on:
 	// optimistic, because the choice saw them.
 	InSample Metrics
@@ -40,8 +44,12 @@ type Result struct {
 	Auto     AutoRule        // analysis (c), the joint rule
 	Score    ScoreSweep      // analysis (d)
 	Final    OperatingPoint  // analysis (e) and the choice
-	Controls Controls        // what the background controls say about missed IEDs
-	Warnings []string
+	// Alternative is the rule the other fitting method chooses, with its
+	// in-sample and headline figures, to show what the other method costs;
+	// nil when the headline is skipped.
+	Alternative *OperatingPoint
+	Controls    Controls // what the background controls say about missed IEDs
+	Warnings    []string
 }
 
 // Controls summarises the background controls: epochs drawn uniformly in recording time
@@ -51,4 +59,7 @@ type Controls struct {
 	Rated         int      // controls with a reference
 	IEDs          int      // of which the reference calls IED
 	MissedPerHour Estimate // design-weighted IEDs per recording hour outside the candidates
+	// Warning says when MissedPerHour rests on fewer than five controls
+	// called IED; empty otherwise.
+	Warning string
 }

@@ -34,6 +34,9 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	if o.Bootstrap == 0 {
 		o.Bootstrap = 2000
 	}
+	if o.HeadlineReplicates == 0 {
+		o.HeadlineReplicates = 200
+	}
 	if o.ReferenceName == "" {
 		o.ReferenceName = "reference standard"
 	}
@@ -76,6 +79,9 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	}
 
 	res.Controls = controlSummary(s, o.Level)
+	if res.Controls.Warning != "" {
+		warn("%s", res.Controls.Warning)
+	}
 	res.KSweep = kSweep(s, &o, o.Level)
 	res.Subsets = subsetAnalysis(s, folds, o.Level)
 	for j := range 6 {
@@ -94,7 +100,11 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		warn("no detector score threshold meets %s", o.Policy)
 	}
 
-	f, fw, err := fitAuto(s, o.Policy)
+	method := o.Method
+	if method == "" {
+		method = MethodJoint
+	}
+	f, fw, err := fitRule(s, method, o.Policy)
 	for _, w := range fw {
 		if !contains(res.Warnings, w) {
 			res.Warnings = append(res.Warnings, w)
@@ -107,7 +117,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		}
 		return nil, err
 	}
-	res.Auto = AutoRule{Chosen: f.k - 1, K: f.k, Cutoffs: f.cutoffs(f.cut)}
+	res.Auto = AutoRule{Method: method, Chosen: f.k - 1, K: f.k, Cutoffs: f.cutoffs(f.cut)}
 	for k := 1; k <= 6; k++ {
 		bk := f.byK[k-1]
 		hits := make([]bool, s.n())
@@ -119,12 +129,10 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 			Point: Point{Rule: f.name(bk.cut, k), Threshold: float64(k), Counts: c, Weighted: bk.w, FalsePerHour: falsePerHour(bk.fp, s.hours)}})
 	}
 
-	hit := make([]bool, s.n())
-	for i, e := range s.src {
-		hit[i] = f.hits(e, &f.cut, f.k)
-	}
+	hit := f.decide(s)
 	res.Final = OperatingPoint{
-		Analysis:  "automatic rule: at least k criteria met at tuned feature cutoffs",
+		Analysis:  analysisName(method),
+		Method:    method,
 		Rule:      f.name(f.cut, f.k),
 		Policy:    o.Policy,
 		Reference: o.ReferenceName,
@@ -132,9 +140,33 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		Cutoffs:   f.cutoffs(f.cut),
 		InSample:  measure(s, hit, o.Level),
 	}
+	if o.HeadlineReplicates >= 0 {
+		bar := newBar(o.HeadlineReplicates, "repeating the selection on resampled subjects")
+		res.Final.Headline, err = headline(ctx, s, f, method, o.Policy, o.HeadlineReplicates, o.Seed, o.Level, bar)
+		bar.Finish()
+		if err != nil {
+			return nil, err
+		}
+		res.Warnings = append(res.Warnings, res.Final.Headline.Notes...)
+		// The other fitting method, side by side with its own honest figures.
+		other := MethodJoint
+		if method == MethodJoint {
+			other = MethodCriterion
+		}
+		if g, _, err := fitRule(s, other, o.Policy); g != nil {
+			_ = err // a policy no rule meets still shows the nearest rule
+			alt := &OperatingPoint{Analysis: analysisName(other), Method: other, Rule: g.name(g.cut, g.k), Policy: o.Policy,
+				Reference: o.ReferenceName, K: g.k, Cutoffs: g.cutoffs(g.cut), InSample: measure(s, g.decide(s), o.Level)}
+			alt.Headline, err = headline(ctx, s, g, other, o.Policy, o.HeadlineReplicates, o.Seed, o.Level, progress.Silent{})
+			if err != nil {
+				return nil, err
+			}
+			res.Alternative = alt
+		}
+	}
 	if folds != nil {
 		bar := newBar(len(folds), "cross-validating")
-		cv, cw, err := crossValidateAuto(ctx, s, folds, o.Policy, o.Level, bar)
+		cv, cw, err := crossValidateAuto(ctx, s, folds, method, o.Policy, o.Level, bar)
 		bar.Finish()
 		if err != nil {
 			return nil, err
@@ -161,4 +193,11 @@ func contains(v []string, s string) bool {
 		}
 	}
 	return false
+}
+
+func analysisName(method string) string {
+	if method == MethodJoint {
+		return "automatic rule: at least k criteria met, six cutoffs and k searched jointly against the reference standard"
+	}
+	return "automatic rule: at least k criteria met, each cutoff fitted to its criterion's panel majority (Youden's J), k chosen against the reference standard"
 }

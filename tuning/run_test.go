@@ -18,7 +18,7 @@ func runSim(t *testing.T, seed uint64, policy string) *Result {
 		t.Fatal(err)
 	}
 	ev := simulate(rand.New(rand.NewPCG(seed, 1)), 40, 30, 1.5)
-	res, err := Run(context.Background(), Options{Events: ev, RecordingHours: 100, Policy: p, Bootstrap: 200, Seed: seed, ReferenceName: "panel verdict"})
+	res, err := Run(context.Background(), Options{Events: ev, RecordingHours: 100, Policy: p, Bootstrap: 200, HeadlineReplicates: 60, Seed: seed, ReferenceName: "panel verdict"})
 	if err != nil {
 		t.Fatal(err)
 	}

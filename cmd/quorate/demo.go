@@ -26,6 +26,7 @@ import (
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 	"github.com/quorate-eeg/quorate/sampling/draw"
 	"github.com/quorate-eeg/quorate/sampling/synth"
+	"github.com/quorate-eeg/quorate/tuning"
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
 )
 
@@ -269,20 +270,24 @@ func demoSummary(w io.Writer, s *study.Study, recs []archive.Recording, cands []
 		return err
 	}
 	fmt.Fprintf(w, "Operating   %s\n            chosen by %s against the %s\n", op.Rule, op.Policy, op.ReferenceStandard)
-	d := op.InSample.DesignWeighted
-	fmt.Fprintf(w, "            in sample (design-weighted): sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f): optimistic, the rule was chosen on these events\n",
-		d.Sensitivity.Value, d.Sensitivity.Lo, d.Sensitivity.Hi, d.Specificity.Value, d.Specificity.Lo, d.Specificity.Hi)
-	if op.CrossValidated != nil {
-		cv := op.CrossValidated.DesignWeighted
-		fmt.Fprintf(w, "            cross-validated by subject:  sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f): what to expect on new recordings\n",
-			cv.Sensitivity.Value, cv.Sensitivity.Lo, cv.Sensitivity.Hi, cv.Specificity.Value, cv.Specificity.Lo, cv.Specificity.Hi)
+	if h := op.Headline; h != nil {
+		fmt.Fprintf(w, "            to expect on new recordings:  sensitivity %s, specificity %s\n            (%s)\n",
+			interval(h.Sensitivity), interval(h.Specificity), h.Method)
 	}
+	d := op.InSample.DesignWeighted
+	fmt.Fprintf(w, "            in sample (design-weighted):  sensitivity %s, specificity %s: optimistic, the rule was chosen on these events\n",
+		interval(d.Sensitivity), interval(d.Specificity))
 	ts := TruthCheck(op, cands, truth)
 	fmt.Fprintf(w, "            the generator's truth on all %d candidates:  sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f)\n",
 		ts.N, ts.Sens, ts.SensLo, ts.SensHi, ts.Spec, ts.SpecLo, ts.SpecHi)
 	fmt.Fprintf(w, "\nReport      %s\nExport      %s\nStudy       %s\n\n%s\n", s.Path(study.TuningDir, "report.html"),
 		filepath.Join(filepath.Dir(s.Dir), "export"), s.Dir, caution)
 	return nil
+}
+
+// interval prints a reported figure with its interval, or says there is none.
+func interval(v report.Interval) string {
+	return estimate(tuning.Estimate{Value: float64(v.Value), Lo: float64(v.Lo), Hi: float64(v.Hi)})
 }
 
 // TruthStats is an operating point scored against the generator's truth.

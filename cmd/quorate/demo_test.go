@@ -126,34 +126,14 @@ func TestDemoEndToEnd(t *testing.T) {
 
 	// The chosen operating point, scored against the generator's truth on every
 	// candidate, lies within the intervals the report gives for it.
-	s, err := study.Open(st)
-	if err != nil {
-		t.Fatal(err)
-	}
-	op, err := report.ReadOperatingPoint(s.Path(study.TuningDir, report.PointFile))
-	if err != nil {
-		t.Fatal(err)
-	}
-	recs, err := readIndex(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	cands, _ := candidate.ReadDir(s.Path(study.CandidatesDir))
-	truthByPath := map[string][]synth.Event{}
-	for _, r := range recs {
-		evs, err := readTruth(filepath.Join(out, "truth", strings.TrimSuffix(filepath.Base(r.Path), ".edf")+"_truth.csv"))
-		if err != nil {
-			t.Fatal(err)
-		}
-		truthByPath[r.Path] = evs
-	}
+	op, cands, truth := demoOutcome(t, out)
 	// The truth for the chosen rule must lie within what the report says of it. The
 	// in-sample interval is optimistic (the rule was chosen on those events) and the
 	// subject-grouped cross-validated one pessimistic with few subjects (each fold learns
 	// from fewer of them); the rule's true figures lie between the two (Efron 1983), so
 	// the check is against the span from the lower of the two intervals' ends to the
 	// higher.
-	ts := TruthCheck(op, cands, demoTruth(recs, cands, truthByPath))
+	ts := TruthCheck(op, cands, truth)
 	if op.CrossValidated == nil {
 		t.Fatal("no cross-validated estimate reported")
 	}
@@ -174,7 +154,7 @@ func TestDemoEndToEnd(t *testing.T) {
 	// 1990); observed agreement and Gwet's AC1, which is not (Gwet 2008), carry the check,
 	// and kappa must only stay above chance and below perfect.
 	var agr consensus.Agreement
-	b, _ := os.ReadFile(s.Path(study.ConsensusDir, "agreement.json"))
+	b, _ := os.ReadFile(filepath.Join(st, study.ConsensusDir, "agreement.json"))
 	if err := json.Unmarshal(b, &agr); err != nil || len(agr.Questions) != 7 {
 		t.Fatalf("agreement.json: %v", err)
 	}
@@ -202,6 +182,34 @@ func TestDemoEndToEnd(t *testing.T) {
 	if third["study/draw/draw.parquet"] == first["study/draw/draw.parquet"] || third["archive/sub-001/sub-001_ses-01_task-rest_run-01.edf"] == first["archive/sub-001/sub-001_ses-01_task-rest_run-01.edf"] {
 		t.Error("another seed gave the same archive or draw")
 	}
+}
+
+// demoOutcome reads a finished demo folder: the operating point, the candidates and the
+// generator's truth matched to them as the demo matches it.
+func demoOutcome(t *testing.T, out string) (*report.OperatingPoint, []candidate.Row, map[string]synth.Event) {
+	t.Helper()
+	s, err := study.Open(filepath.Join(out, "study"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	op, err := report.ReadOperatingPoint(s.Path(study.TuningDir, report.PointFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	recs, err := readIndex(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cands, _ := candidate.ReadDir(s.Path(study.CandidatesDir))
+	truthByPath := map[string][]synth.Event{}
+	for _, r := range recs {
+		evs, err := readTruth(filepath.Join(out, "truth", strings.TrimSuffix(filepath.Base(r.Path), ".edf")+"_truth.csv"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		truthByPath[r.Path] = evs
+	}
+	return op, cands, demoTruth(recs, cands, truthByPath)
 }
 
 // Interval is the JSON form of a reported interval.

@@ -117,7 +117,7 @@ func runExport(ctx context.Context, g *globals, s *study.Study, f *exportFlags) 
 			}
 		}
 		if len(dec) > 0 {
-			o.OperatingPoint = &export.OPDecision{Rule: op.Rule, Decision: dec}
+			o.OperatingPoint = &export.OPDecision{Rule: op.Rule, Headline: op.HeadlineWords(), Decision: dec}
 		}
 	}
 	if f.reference != "" {

@@ -11,7 +11,6 @@ import (
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/export/report"
-	"github.com/quorate-eeg/quorate/panel/consensus"
 	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/candidate"
@@ -21,9 +20,9 @@ import (
 )
 
 type tuneFlags struct {
-	reference, policy string
-	folds, bootstrap  int
-	seed              uint64
+	reference, policy, method string
+	folds, bootstrap          int
+	seed                      uint64
 }
 
 func newTuneCmd(g *globals) *cobra.Command {
@@ -76,6 +75,7 @@ tuning/report.md.`,
 	fl.StringVar(&f.policy, "policy", "", "operating-point policy (default: study.yaml)")
 	fl.IntVar(&f.folds, "folds", 0, "subject-grouped cross-validation folds")
 	fl.IntVar(&f.bootstrap, "bootstrap", 0, "subject bootstrap replicates")
+	fl.StringVar(&f.method, "method", tuning.MethodJoint, "how the automatic rule is fitted: "+tuning.MethodJoint+" (six cutoffs and k searched together) or "+tuning.MethodCriterion+" (each cutoff against its criterion's panel majority, then k)")
 	fl.Uint64Var(&f.seed, "seed", 0, "random seed (default: study.yaml seed)")
 	return cmd
 }
@@ -104,14 +104,6 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	if err != nil {
 		return err
 	}
-	byEvent := make(map[string]*consensus.Event, len(evs))
-	for i := range evs {
-		byEvent[evs[i].EventID] = &evs[i]
-	}
-	byCand := make(map[string]*candidate.Row, len(cands))
-	for i := range cands {
-		byCand[cands[i].EventID] = &cands[i]
-	}
 	var external map[string]int8
 	refName := "panel majority verdict"
 	switch {
@@ -132,46 +124,20 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	case f.reference != "panel":
 		return usageError{fmt.Errorf("--reference: got %q, want panel, dawid-skene or external:FILE", f.reference)}
 	}
-	var events []tuning.Event
-	for _, r := range rows {
-		ce := byEvent[r.EventID]
-		if ce == nil {
-			continue // not rated (yet)
-		}
-		e := tuning.Event{EventID: r.EventID, Subject: r.SubjectKey, Recording: r.RecordingID, Stratum: r.Stratum,
-			Kind: r.Kind, Weight: r.Weight, Score: math.NaN()}
-		for i := range e.Features {
-			e.Features[i] = math.NaN()
-		}
-		if c := byCand[r.EventID]; c != nil {
-			e.Features, e.AutoMet, e.Score = c.Features(), c.Met(), c.Score
-			if strings.HasPrefix(c.Source, "import:") {
-				e.Score = c.Imported
-			}
-		}
-		for q, d := range ce.Decisions() {
-			e.Majority[q] = decisionCode(d)
-		}
-		switch {
-		case external != nil:
-			v, ok := external[r.EventID]
-			e.Reference = -1
-			if ok {
-				e.Reference = v
-			}
-		case f.reference == "dawid-skene":
-			e.Reference = tuning.ReferenceFromDS(ce.DSProbability)
-		default:
-			e.Reference = tuning.ReferenceFromPanel(ce.Verdict)
-		}
-		events = append(events, e)
+	kind := tuning.ReferencePanel
+	switch {
+	case external != nil:
+		kind = tuning.ReferenceExternal
+	case f.reference == "dawid-skene":
+		kind = tuning.ReferenceDawidSkene
 	}
+	events := tuning.Join(rows, evs, cands, kind, external)
 	hours := 0.0
 	for _, r := range recs {
 		hours += r.DurationS / 3600
 	}
 	res, err := tuning.Run(ctx, tuning.Options{Events: events, RecordingHours: hours, Policy: pol,
-		Folds: f.folds, Bootstrap: f.bootstrap, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
+		Folds: f.folds, Bootstrap: f.bootstrap, Method: f.method, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
 	if err != nil {
 		return err
 	}
@@ -199,23 +165,24 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	}
 	fp := res.Final
 	fmt.Fprintf(g.stdout, "Operating point (%s, chosen by %s against the %s):\n  %s\n", fp.Analysis, fp.Policy, refName, fp.Rule)
+	if h := fp.Headline; h != nil {
+		fmt.Fprintf(g.stdout, "  to expect on new recordings: sensitivity %s, specificity %s, PPV %s, false detections per hour %s\n  (%.0f %% intervals; %s)\n",
+			estimate(h.Sens), estimate(h.Spec), estimate(h.PPV), estimate(h.FalsePerHour), 100*res.Level, h.Method)
+	}
 	m := fp.InSample
-	fmt.Fprintf(g.stdout, "  sensitivity %s, specificity %s, PPV %s (design-weighted, %.0f %% intervals)\n",
-		estimate(m.Design.Sens), estimate(m.Design.Spec), estimate(m.Design.PPV), 100*res.Level)
+	fmt.Fprintf(g.stdout, "  in sample, optimistic (the rule was chosen on these events): sensitivity %s, specificity %s, PPV %s (design-weighted)\n",
+		estimate(m.Design.Sens), estimate(m.Design.Spec), estimate(m.Design.PPV))
 	fmt.Fprintf(g.stdout, "Report: %s\n", s.Path(study.TuningDir, "report.html"))
 	return g.finish(len(res.Warnings))
 }
 
-func decisionCode(d string) int8 {
-	switch d {
-	case "present":
-		return 1
-	case "absent":
-		return 0
-	}
-	return -1
-}
-
+// estimate prints a figure with its interval, or says there is none.
 func estimate(e tuning.Estimate) string {
+	if math.IsNaN(e.Value) {
+		return "undefined"
+	}
+	if math.IsNaN(e.Lo) || math.IsNaN(e.Hi) {
+		return fmt.Sprintf("%.2f (no interval: see the notes)", e.Value)
+	}
 	return fmt.Sprintf("%.2f (%.2f–%.2f)", e.Value, e.Lo, e.Hi)
 }

@@ -58,11 +58,19 @@ svg{max-width:100%;height:auto}
 <ul>{{range .Cutoffs}}<li>{{.}}</li>{{end}}</ul>
 </div>
 <p class="explain">{{.Res.Events}} events from {{.Res.Subjects}} subjects had a reference ({{.Res.Positives}} IEDs){{if .Res.Excluded}}; {{.Res.Excluded}} without one were left out{{end}}. Intervals are {{printf "%.0f" (mulLevel .Res.Level)}}% intervals.</p>
+{{with .Res.Final.Headline}}<p><strong>Method:</strong> {{.Method}}; {{.Replicates}} replicates.</p>{{end}}
+<table>
+<tr>{{range .Expect.Head}}<th>{{.}}</th>{{end}}</tr>
+{{range .Expect.Rows}}<tr>{{range $i, $c := .}}{{if eq $i 0}}<th>{{$c}}</th>{{else}}<td class="n">{{$c}}</td>{{end}}{{end}}</tr>
+{{end}}</table>
+{{range .Expect.Notes}}<p class="explain"><strong>No interval:</strong> {{.}}</p>{{end}}
+<p class="explain">{{.ExpectWhy}}</p>
+<h3>The chosen rule on the rated events (in sample: optimistic)</h3>
 <table>
 <tr><th>Figure</th><th>In sample, unweighted</th><th>In sample, design-weighted</th><th>Cross-validated</th><th>Subject bootstrap</th><th>What it means</th></tr>
 {{range .Headline}}<tr><th>{{.Name}}</th><td class="n">{{.Plain}}</td><td class="n">{{.Design}}</td><td class="n">{{.CV}}</td><td class="n">{{.Boot}}</td><td class="explain">{{.Explain}}</td></tr>
 {{end}}</table>
-<p class="explain"><em>In sample, unweighted</em>: the rated events as they are, with Wilson intervals. <em>Design-weighted</em>: each event counts 1/π, its inverse chance of having been drawn, so the figures describe the archive rather than the enriched sample. <em>Cross-validated</em>: the whole choice of cutoffs and k was repeated with each group of subjects held out and judged on them; this is the honest figure to expect on new recordings, and it is usually lower. <em>Subject bootstrap</em>: the spread of the chosen rule's figures when the subjects are resampled.</p>
+<p class="explain"><em>In sample, unweighted</em>: the rated events as they are, with Wilson intervals. <em>Design-weighted</em>: each event counts 1/π, its inverse chance of having been drawn, so the figures describe the archive rather than the enriched sample. <em>Cross-validated</em>: the whole choice of cutoffs and k was repeated with each group of subjects held out and judged on them; each fold learns from fewer subjects, so it tends to be pessimistic, and its interval ignores that every fold chose another rule. <em>Subject bootstrap</em>: the spread of the chosen rule's figures when the subjects are resampled, without repeating the choice, so it is centred on the optimistic in-sample figure.</p>
 
 <h3>Confusion table of the chosen rule</h3>
 <table>

@@ -33,12 +33,20 @@ func writeMarkdown(w io.Writer, res *tuning.Result, agr *consensus.Agreement, me
 		fmt.Fprintf(w, "- %s\n", c)
 	}
 	fmt.Fprintln(w)
+	if h := res.Final.Headline; h != nil {
+		fmt.Fprintf(w, "Method: %s; %d replicates.\n\n", h.Method, h.Replicates)
+	}
+	mdTable(w, v.Expect.Head, v.Expect.Rows)
+	for _, n := range v.Expect.Notes {
+		fmt.Fprintf(w, "**No interval:** %s\n\n", n)
+	}
+	fmt.Fprintf(w, "%s\n\n### The chosen rule on the rated events (in sample: optimistic)\n\n", v.ExpectWhy)
 	var rows [][]string
 	for _, h := range v.Headline {
 		rows = append(rows, []string{h.Name, h.Plain, h.Design, h.CV, h.Boot, h.Explain})
 	}
 	mdTable(w, []string{"Figure", "In sample, unweighted", "In sample, design-weighted", "Cross-validated", "Subject bootstrap", "What it means"}, rows)
-	fmt.Fprintln(w, "Design-weighted figures count each event 1/π and so describe the archive; cross-validated figures repeat the whole choice with each group of subjects held out and are the honest expectation for new recordings.")
+	fmt.Fprintln(w, "Design-weighted figures count each event 1/π and so describe the archive; cross-validated figures repeat the whole choice with each group of subjects held out (pessimistic: each fold learns from fewer subjects); the subject bootstrap does not repeat the choice and is centred on the optimistic in-sample figure.")
 	fmt.Fprintln(w)
 	c := v.Confusion
 	mdTable(w, []string{"", "Reference: IED", "Reference: not IED"}, [][]string{

@@ -1,7 +1,10 @@
 package report
 
 import (
+	"fmt"
+	"math"
 	"strconv"
+	"strings"
 	"time"
 
 	"github.com/quorate-eeg/quorate/internal/jsonx"
@@ -73,6 +76,73 @@ type BootstrapJSON struct {
 	FalsePerHour Interval `json:"false_detections_per_hour"`
 }
 
+// HeadlineJSON is the operating point's headline: the figures to expect on
+// new recordings, corrected for the selection (tuning.Headline).
+type HeadlineJSON struct {
+	Method       string   `json:"method"`
+	Replicates   int      `json:"replicates"`
+	Sensitivity  Interval `json:"sensitivity"`
+	Specificity  Interval `json:"specificity"`
+	PPV          Interval `json:"ppv"`
+	FalsePerHour Interval `json:"false_per_hour"`
+	Notes        []string `json:"notes"`
+}
+
+func headlineJSON(h *tuning.Headline) *HeadlineJSON {
+	if h == nil {
+		return nil
+	}
+	n := h.Notes
+	if n == nil {
+		n = []string{}
+	}
+	return &HeadlineJSON{h.Method, h.Replicates, iv(h.Sens), iv(h.Spec), iv(h.PPV), iv(h.FalsePerHour), n}
+}
+
+// HeadlineWords is the headline in one line of words ("sensitivity 0.63
+// (0.40–0.83), …"), or "" when there is none.
+func (op *OperatingPoint) HeadlineWords() string {
+	h := op.Headline
+	if h == nil {
+		return ""
+	}
+	f := func(name string, v Interval) string {
+		switch {
+		case math.IsNaN(float64(v.Value)):
+			return name + " undefined"
+		case math.IsNaN(float64(v.Lo)):
+			return fmt.Sprintf("%s %.2f (no interval)", name, float64(v.Value))
+		}
+		return fmt.Sprintf("%s %.2f (%.2f–%.2f)", name, float64(v.Value), float64(v.Lo), float64(v.Hi))
+	}
+	return strings.Join([]string{f("sensitivity", h.Sensitivity), f("specificity", h.Specificity), f("PPV", h.PPV), f("false detections per hour", h.FalsePerHour)}, ", ")
+}
+
+// AlternativeJSON is the rule the other fitting method chooses, for comparison.
+type AlternativeJSON struct {
+	Method   string        `json:"fit_method"`
+	Rule     string        `json:"rule"`
+	K        int           `json:"k"`
+	Cutoffs  []CutoffJSON  `json:"cutoffs"`
+	Headline *HeadlineJSON `json:"headline"`
+	InSample MetricsJSON   `json:"in_sample_optimistic"`
+}
+
+func cutoffsJSON(cs [6]tuning.Cutoff) []CutoffJSON {
+	var out []CutoffJSON
+	for _, c := range cs {
+		met := "left out"
+		switch c.Direction {
+		case 1:
+			met = ">="
+		case -1:
+			met = "<="
+		}
+		out = append(out, CutoffJSON{c.Criterion, c.Feature, met, jsonx.Float(c.Value)})
+	}
+	return out
+}
+
 // CutoffJSON is one criterion's cutoff.
 type CutoffJSON struct {
 	Criterion int         `json:"criterion"`
@@ -89,6 +159,7 @@ type OperatingPoint struct {
 	ReferenceStandard string            `json:"reference_standard"`
 	Policy            string            `json:"policy"`
 	Analysis          string            `json:"analysis"`
+	Method            string            `json:"fit_method"`
 	Rule              string            `json:"rule"`
 	K                 int               `json:"k"`
 	Cutoffs           []CutoffJSON      `json:"cutoffs"`
@@ -97,6 +168,8 @@ type OperatingPoint struct {
 	RecordingHours    jsonx.Float       `json:"recording_hours"`
 	Level             jsonx.Float       `json:"confidence_level"`
 	Seed              string            `json:"seed"`
+	Headline          *HeadlineJSON     `json:"headline"`
+	Alternative       *AlternativeJSON  `json:"alternative"`
 	InSample          MetricsJSON       `json:"in_sample"`
 	CrossValidated    *MetricsJSON      `json:"cross_validated"`
 	Bootstrap         *BootstrapJSON    `json:"bootstrap"`
@@ -110,6 +183,7 @@ type ControlsJSON struct {
 	Rated         int      `json:"rated"`
 	IEDs          int      `json:"ieds"`
 	MissedPerHour Interval `json:"missed_ieds_per_hour"`
+	Warning       string   `json:"warning,omitempty"`
 }
 
 // NewOperatingPoint assembles operating-point.json from a result.
@@ -121,20 +195,14 @@ func NewOperatingPoint(res *tuning.Result, meta Meta) OperatingPoint {
 		Events: res.Events, Subjects: res.Subjects, RecordingHours: jsonx.Float(res.RecordingHours),
 		Level: jsonx.Float(res.Level), Seed: strconv.FormatUint(res.Seed, 10),
 		InSample: metrics(f.InSample), InputHashes: meta.InputHashes, Warnings: res.Warnings,
-		Controls: ControlsJSON{res.Controls.Rated, res.Controls.IEDs, iv(res.Controls.MissedPerHour)},
+		Controls: ControlsJSON{res.Controls.Rated, res.Controls.IEDs, iv(res.Controls.MissedPerHour), res.Controls.Warning},
 	}
 	if op.Warnings == nil {
 		op.Warnings = []string{}
 	}
-	for _, c := range f.Cutoffs {
-		met := "left out"
-		switch c.Direction {
-		case 1:
-			met = ">="
-		case -1:
-			met = "<="
-		}
-		op.Cutoffs = append(op.Cutoffs, CutoffJSON{c.Criterion, c.Feature, met, jsonx.Float(c.Value)})
+	op.Method, op.Headline, op.Cutoffs = f.Method, headlineJSON(f.Headline), cutoffsJSON(f.Cutoffs)
+	if a := res.Alternative; a != nil {
+		op.Alternative = &AlternativeJSON{a.Method, a.Rule, a.K, cutoffsJSON(a.Cutoffs), headlineJSON(a.Headline), metrics(a.InSample)}
 	}
 	if f.CV != nil {
 		m := metrics(f.CV.Metrics)

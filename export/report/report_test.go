@@ -83,6 +83,9 @@ func TestWrite(t *testing.T) {
 	if op["rule"] != res.Final.Rule || op["policy"] != "youden" || op["reference_standard"] != "panel majority verdict" {
 		t.Errorf("operating point header: rule %v policy %v reference %v", op["rule"], op["policy"], op["reference_standard"])
 	}
+	if h, ok := op["headline"].(map[string]any); !ok || h["method"] == "" || h["sensitivity"] == nil || h["false_per_hour"] == nil {
+		t.Errorf("operating point lacks the headline with its method: %v", op["headline"])
+	}
 	if op["cross_validated"] == nil || op["bootstrap"] == nil || op["input_sha256"] == nil {
 		t.Error("operating point lacks cross-validated, bootstrap or input hashes")
 	}
@@ -121,6 +124,9 @@ func TestWrite(t *testing.T) {
 	}
 	if i := strings.Index(string(md), Caution); i < 0 || i > 400 {
 		t.Errorf("caution not near the top of report.md (at %d)", i)
+	}
+	if e, i := strings.Index(string(md), "to expect on new recordings"), strings.Index(string(md), "In sample, unweighted"); e < 0 || e > i {
+		t.Error("report.md does not lead with the figures to expect on new recordings")
 	}
 	if !strings.Contains(string(md), res.Final.Rule) {
 		t.Error("report.md lacks the rule")

@@ -2,6 +2,7 @@ package report
 
 import (
 	"io"
+	"math"
 
 	"github.com/parquet-go/parquet-go"
 	"github.com/parquet-go/parquet-go/compress/zstd"
@@ -24,24 +25,34 @@ type SweepRow struct {
 	WFP       float64 `parquet:"weighted_fp"`
 	WTN       float64 `parquet:"weighted_tn"`
 	WFN       float64 `parquet:"weighted_fn"`
-	Sens      float64 `parquet:"sensitivity"` // unweighted
-	Spec      float64 `parquet:"specificity"`
-	PPV       float64 `parquet:"ppv"`
-	WSens     float64 `parquet:"weighted_sensitivity"`
-	WSpec     float64 `parquet:"weighted_specificity"`
-	WPPV      float64 `parquet:"weighted_ppv"`
-	WNPV      float64 `parquet:"weighted_npv"`
-	WYouden   float64 `parquet:"weighted_youden_j"`
-	FPH       float64 `parquet:"false_per_hour"`
+	// Rates are null where their denominator is empty (nothing called
+	// negative gives no NPV), never a number made of rounding error.
+	Sens    *float64 `parquet:"sensitivity,optional"` // unweighted
+	Spec    *float64 `parquet:"specificity,optional"`
+	PPV     *float64 `parquet:"ppv,optional"`
+	WSens   *float64 `parquet:"weighted_sensitivity,optional"`
+	WSpec   *float64 `parquet:"weighted_specificity,optional"`
+	WPPV    *float64 `parquet:"weighted_ppv,optional"`
+	WNPV    *float64 `parquet:"weighted_npv,optional"`
+	WYouden *float64 `parquet:"weighted_youden_j,optional"`
+	FPH     *float64 `parquet:"false_per_hour,optional"`
 }
 
 func row(analysis string, crit int, p tuning.Point) SweepRow {
 	c, w := p.Counts, p.Weighted
 	return SweepRow{Analysis: analysis, Rule: p.Rule, Criterion: int32(crit), Threshold: p.Threshold,
 		TP: c.TP, FP: c.FP, TN: c.TN, FN: c.FN, WTP: w.TP, WFP: w.FP, WTN: w.TN, WFN: w.FN,
-		Sens: c.Sensitivity(), Spec: c.Specificity(), PPV: c.PPV(),
-		WSens: w.Sensitivity(), WSpec: w.Specificity(), WPPV: w.PPV(), WNPV: w.NPV(), WYouden: w.Youden(),
-		FPH: p.FalsePerHour}
+		Sens: null(c.Sensitivity()), Spec: null(c.Specificity()), PPV: null(c.PPV()),
+		WSens: null(w.Sensitivity()), WSpec: null(w.Specificity()), WPPV: null(w.PPV()), WNPV: null(w.NPV()), WYouden: null(w.Youden()),
+		FPH: null(p.FalsePerHour)}
+}
+
+// null makes an undefined (NaN) rate a parquet null.
+func null(v float64) *float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return &v
 }
 
 // SweepRows lists every point the tuner evaluated, analysis by analysis.

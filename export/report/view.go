@@ -3,6 +3,7 @@ package report
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"time"
 
 	"github.com/quorate-eeg/quorate/panel/consensus"
@@ -17,6 +18,8 @@ type view struct {
 	Res       *tuning.Result
 	Policy    string
 	Headline  []figureRow
+	Expect    expectTable
+	ExpectWhy string
 	Cutoffs   []string
 	Confusion [2][4]string // unweighted, weighted: TP FP FN TN
 	KRows     [][]string
@@ -30,7 +33,7 @@ type view struct {
 
 func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 	v := view{Caution: Caution, Meta: meta, Generated: meta.Generated.UTC().Format(time.RFC3339), Res: res,
-		Policy: res.Policy.String(), Headline: headline(res)}
+		Policy: res.Policy.String(), Headline: headline(res), Expect: expect(res), ExpectWhy: expectExplain}
 	f := res.Final
 	for _, c := range f.Cutoffs {
 		v.Cutoffs = append(v.Cutoffs, fmt.Sprintf("c%d: %s", c.Criterion, c.String()))
@@ -59,7 +62,7 @@ func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 			dir = "≤"
 		}
 		v.Criteria = append(v.Criteria, []string{fmt.Sprintf("c%d", c.Criterion), c.Feature, fmt.Sprintf("%d (%d present)", c.N, c.Present),
-			numCI(c.AUC), dir + " " + num(c.Cutoff), pct(c.AtCutoff.Weighted.Sensitivity()), pct(c.AtCutoff.Weighted.Specificity()), ""})
+			numCI(c.AUC), dir + " " + strconv.FormatFloat(c.Cutoff, 'g', -1, 64), pct(c.AtCutoff.Weighted.Sensitivity()), pct(c.AtCutoff.Weighted.Specificity()), ""})
 	}
 	for i, a := range res.Auto.ByK {
 		mark := ""
@@ -86,8 +89,11 @@ func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 	}
 	if c := res.Controls; c.Rated > 0 {
 		line := fmt.Sprintf("The panel rated %d background controls (epochs drawn at random away from every candidate, kept out of the figures above) and called %d of them IEDs: IEDs the finder missed.", c.Rated, c.IEDs)
-		if !math.IsNaN(c.MissedPerHour.Value) {
-			line += fmt.Sprintf(" Projected to the archive: %s missed IEDs per hour of recording.", numCI(c.MissedPerHour))
+		if !math.IsNaN(c.MissedPerHour.Lo) {
+			line += fmt.Sprintf(" Projected to the archive: %s missed IEDs per hour of recording, carried by %d control(s).", numCI(c.MissedPerHour), c.IEDs)
+		}
+		if c.Warning != "" {
+			line += " Caution: " + c.Warning + "."
 		}
 		v.Score = append(v.Score, line)
 	}

@@ -46,9 +46,23 @@ func Counts(scores []float64, truth []bool, weights []float64) (thresholds []flo
 			}
 		}
 		thresholds = append(thresholds, s)
-		counts = append(counts, Confusion{TP: tp, FP: fp, FN: pos - tp, TN: neg - fp})
+		counts = append(counts, Confusion{TP: tp, FP: fp, FN: Remainder(pos, tp), TN: Remainder(neg, fp)})
 	}
 	return thresholds, counts
+}
+
+// Remainder returns total − part for a cell built by subtraction, such as
+// FN = positives − TP: zero when the difference is below the rounding of
+// summing the weights (≤ 1e-9·total) or negative. A weighted count is a sum
+// of non-negative weights, so −2e-13 can only be rounding error, and a
+// ratio over it (NPV over an empty "called negative" set) must come out
+// undefined, not 1.33 or −2.
+func Remainder(total, part float64) float64 {
+	d := total - part
+	if d <= 1e-9*math.Abs(total) {
+		return 0
+	}
+	return d
 }
 
 // Points turns Counts output into operating points for Choose; hours is

@@ -55,7 +55,7 @@ func KSweep(criteria [][]bool, truth []bool, weights []float64) []Confusion {
 	for k := n; k >= 1; k-- {
 		tp += pos[k]
 		fp += neg[k]
-		out[k-1] = Confusion{TP: tp, FP: fp, FN: totPos - tp, TN: totNeg - fp}
+		out[k-1] = Confusion{TP: tp, FP: fp, FN: Remainder(totPos, tp), TN: Remainder(totNeg, fp)}
 	}
 	return out
 }

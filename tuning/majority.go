@@ -1,0 +1,122 @@
+package tuning
+
+import (
+	"fmt"
+
+	"github.com/quorate-eeg/quorate/tuning/accuracy"
+)
+
+// Fitting methods of the automatic rule "at least k criteria met at these
+// cutoffs".
+const (
+	// MethodCriterion fits each criterion's cutoff against that criterion's
+	// own panel majority, the label the feature is meant to reproduce, by
+	// a stated rule read off the criterion's ROC (criterionTargets), one
+	// threshold per feature; only k and the shared rule (24 choices) are
+	// then chosen against the reference standard by the policy, instead of
+	// the joint search's dozens of choices (Harrell 2015, Regression
+	// Modeling Strategies, 2nd ed., ch. 4, on spending fewer degrees of
+	// freedom; from memory).
+	MethodCriterion = "criterion-majority"
+	// MethodJoint is the joint search of AutoRule: six cutoffs and k chosen
+	// together against the reference standard.
+	MethodJoint = "joint-search"
+)
+
+// fitRule fits the automatic rule by method on s.
+func fitRule(s *evset, method string, p accuracy.Policy) (*autoFit, []string, error) {
+	switch method {
+	case MethodJoint, "":
+		return fitAuto(s, p)
+	case MethodCriterion:
+		return fitMajority(s, p)
+	}
+	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want %q or %q, got %q", MethodCriterion, MethodJoint, method)}
+}
+
+// criterionTargets are the stated ways a criterion's cutoff is read off its
+// ROC against its own panel majority: Youden's J (0), or the highest cutoff
+// whose design-weighted sensitivity for the criterion reaches 0.80, 0.90 or
+// 0.95. A rule needing k of six criteria loses an IED whenever more than
+// 6 − k of its criteria fall short, so a more lenient per-criterion cutoff
+// can serve a stricter k better; the targets let the policy weigh that
+// with one shared choice instead of one per criterion.
+var criterionTargets = [...]float64{0, 0.80, 0.90, 0.95}
+
+// fitMajority fits each criterion by fitCriterion (direction by weighted
+// AUC ≥ ½, against the criterion's panel majority), reads every criterion's
+// cutoff off its curve at each of the criterionTargets, places the cutoffs
+// in the gap between adjacent observed values (placeCuts), and lets the
+// policy pick the target and k = 1…6 together on the design-weighted
+// figures against the reference standard (24 rules; ties to the later
+// target and larger k). A criterion whose majority is one-sided or whose
+// feature is constant is left out.
+func fitMajority(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
+	var warn []string
+	var fits [6]criterionFit
+	var active [6]bool
+	for j := range 6 {
+		fits[j] = fitCriterion(s, j, false)
+		if !fits[j].ok {
+			warn = append(warn, fmt.Sprintf("c%d: %s; left out of the automatic rule", j+1, fits[j].skip))
+			continue
+		}
+		active[j] = true
+	}
+	if active == [6]bool{} {
+		return nil, warn, &NoDataError{Msg: "no criterion has a panel majority both ways and a varying feature: no automatic rule can be tuned"}
+	}
+	var best *autoFit
+	var bestErr error
+	var pts []accuracy.Point
+	var cands []*autoFit
+	for _, target := range criterionTargets {
+		f := &autoFit{active: active}
+		for j := range 6 {
+			if active[j] {
+				f.dir[j], f.cut[j] = fits[j].dir, fits[j].at(target)
+			}
+		}
+		placeCuts(s, f, &f.cut)
+		var kpts [6]accuracy.Point
+		for k := 1; k <= 6; k++ {
+			bk := &f.byK[k-1]
+			bk.cut = f.cut
+			var fc float64
+			hit := make([]bool, s.n())
+			for i, e := range s.src {
+				hit[i] = f.hits(e, &f.cut, k)
+				if hit[i] && !s.truth[i] && s.candidate[i] {
+					fc += s.weight[i]
+				}
+			}
+			bk.w = accuracy.Tally(hit, s.truth, s.weight)
+			bk.fp = fc // a weighted count, as in fitAuto
+			bk.point = accuracy.NewPoint(float64(k), bk.w, 1)
+			bk.point.FalsePerHour = falsePerHour(fc, s.hours)
+			kpts[k-1] = bk.point
+		}
+		pts = append(pts, kpts[:]...)
+		cands = append(cands, f)
+	}
+	idx, err := chooseK(pts, p)
+	best, bestErr = cands[idx/6], err
+	best.k = idx%6 + 1
+	return best, warn, bestErr
+}
+
+// at is the criterion's cutoff (direction-adjusted) at a target: Youden's
+// for 0, else the highest threshold whose weighted sensitivity for the
+// criterion reaches the target.
+func (f criterionFit) at(target float64) float64 {
+	if target == 0 {
+		return f.cut
+	}
+	// f.th runs from +Inf down; sensitivity rises along it.
+	for i, c := range f.weighed {
+		if c.Sensitivity() >= target {
+			return f.th[i]
+		}
+	}
+	return f.th[len(f.th)-1]
+}
