@@ -3,6 +3,8 @@ package main
 import (
 	"errors"
 	"fmt"
+	"io"
+	"strings"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
@@ -73,7 +75,11 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		ReturnsDir: s.Path(study.ReturnsDir), ConsensusDir: s.Path(study.ConsensusDir), SubjectOf: subjectOf,
 		Quorum: s.Config.Panel.Quorum, Tie: tie, Bootstrap: s.Config.Tuning.Bootstrap, Seed: seed, Level: 0.95})
 	var rej *merge.RejectedError
-	if err != nil && !errors.As(err, &rej) {
+	var stored *merge.StoredError
+	switch {
+	case errors.As(err, &stored):
+		return fmt.Errorf("%w\n(quorate status lists every changed file)", err)
+	case err != nil && !errors.As(err, &rej):
 		return err
 	}
 	for _, e := range res.Superseded {
@@ -90,6 +96,14 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		superseded = append(superseded, e.Packet+"="+e.Stored)
 	}
 	notes["superseded"] = superseded
+	var restored, owed []string
+	for _, e := range res.Restored {
+		restored = append(restored, e.Packet+"="+e.Stored)
+	}
+	for _, o := range res.Owed {
+		owed = append(owed, o.Items...)
+	}
+	notes["restored"], notes["incomplete_items"] = restored, owed
 	seedCopy := seed
 	if rerr := s.Record(study.Entry{Version: Version, Command: "merge", Argv: g.argv, Seed: &seedCopy,
 		Inputs:  s.Hash(files...),
@@ -97,10 +111,14 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		return rerr
 	}
 	if res.Events > 0 {
-		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored, %d superseded); consensus on %d events in %s.\n",
-			len(res.Accepted), len(res.Duplicates), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
+		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored and counting, %d restored, %d no longer counting); consensus on %d events in %s.\n",
+			len(res.Accepted), len(res.Duplicates), len(res.Restored), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
 	} else {
-		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored); the consensus is unchanged.\n", len(res.Accepted), len(res.Duplicates))
+		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored and counting); the consensus is unchanged.\n", len(res.Accepted), len(res.Duplicates))
+	}
+	for _, o := range res.Owed {
+		fmt.Fprintf(g.stdout, "  %s (%s, %s): %d item(s) only partly rated, not merged and still owed: %s\n",
+			o.File, o.Packet, o.Rater, len(o.Items), strings.Join(o.Items, " "))
 	}
 	if res.Agreement != nil {
 		for _, q := range res.Agreement.Questions {
@@ -128,28 +146,54 @@ func newStatusCmd(g *globals) *cobra.Command {
 			if err != nil {
 				return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
 			}
-			led, err := merge.ReadLedger(s.Path(study.ReturnsDir, merge.LedgerFile))
+			key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
 			if err != nil {
 				return err
 			}
-			st := merge.GetStatus(m, led, s.Path(study.ConsensusDir))
-			if err := s.Record(study.Entry{Version: Version, Command: "status", Argv: g.argv,
-				Inputs: s.Hash(s.Path(study.PacketsDir, "manifest.json"), s.Path(study.ReturnsDir, merge.LedgerFile)),
-				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate}}); err != nil {
+			st, err := merge.GetStatus(m, key, s.Path(study.ReturnsDir), s.Path(study.ConsensusDir))
+			if err != nil {
 				return err
 			}
-			tw := tabwriter.NewWriter(g.stdout, 0, 0, 2, ' ', 0)
-			fmt.Fprintln(tw, "packet\trater\tstate\titems\towes\treturns\tsuperseded\t")
-			for _, p := range st.Packets {
-				fmt.Fprintf(tw, "%s\t%s\t%s\t%d\t%d\t%d\t%d\t\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
+			if err := s.Record(study.Entry{Version: Version, Command: "status", Argv: g.argv,
+				Inputs: s.Hash(s.Path(study.PacketsDir, "manifest.json"), s.Path(study.ReturnsDir, merge.LedgerFile)),
+				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate, "owed": st.Owed, "refused": len(st.Refused), "damaged": len(st.Damaged)}}); err != nil {
+				return err
 			}
-			tw.Flush()
-			if st.ConsensusUpToDate {
-				fmt.Fprintln(g.stdout, "The consensus is up to date with the returns.")
-			} else {
-				fmt.Fprintf(g.stdout, "The consensus is not up to date: %s.\n", st.Reason)
-			}
+			writeStatus(g.stdout, st)
 			return nil
 		},
+	}
+}
+
+func writeStatus(w io.Writer, st merge.Status) {
+	fmt.Fprintf(w, "%d packets, %d items (%d of them hidden duplicates) showing %d events; %d items owed.\n",
+		len(st.Packets), st.Items, st.Duplicates, st.Events, st.Owed)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "packet\trater\tstate\titems\towes\treturns\tsuperseded\t")
+	for _, p := range st.Packets {
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%d\t%d\t%d\t%d\t\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
+	}
+	tw.Flush()
+	for _, p := range st.Packets {
+		if p.Owes > 0 && p.Owes < p.Items {
+			fmt.Fprintf(w, "%s owes in %s: %s\n", p.Rater, p.Packet, strings.Join(p.OwedItems, " "))
+		}
+		if len(p.Incomplete) > 0 {
+			fmt.Fprintf(w, "  of which partly rated: %s\n", strings.Join(p.Incomplete, " "))
+		}
+	}
+	for _, r := range st.Refused {
+		fmt.Fprintf(w, "Refused %s (%s): %s\n", r.Original, r.Time.Format("2006-01-02 15:04"), strings.ReplaceAll(r.Reason, "\n", "\n  "))
+	}
+	for _, d := range st.Damaged {
+		fmt.Fprintf(w, "Damaged: %s\n", d)
+	}
+	switch {
+	case st.ConsensusUpToDate:
+		fmt.Fprintln(w, "The consensus is up to date with the returns.")
+	case len(st.Damaged) > 0:
+		fmt.Fprintf(w, "The consensus cannot be trusted: %s; restore them from a backup.\n", st.Reason)
+	default:
+		fmt.Fprintf(w, "The consensus is not up to date: %s; run quorate merge.\n", st.Reason)
 	}
 }
