@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -129,6 +130,11 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	}
 	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
 		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir)})
+	var exists *packet.ExistsError
+	if errors.As(err, &exists) {
+		// The domain names no flags; the command does.
+		return fmt.Errorf("%s already exists: add --replace to move the earlier packets aside (they are kept)", exists.Path)
+	}
 	if err != nil {
 		return err
 	}

@@ -55,8 +55,9 @@ var caution = wrap(cautionText.Text, 90)
 
 func newRoot(g *globals) *cobra.Command {
 	root := &cobra.Command{
-		Use:   "quorate",
-		Short: "From an EEG archive to a locally tuned IED detector operating point",
+		Version: Version,
+		Use:     "quorate",
+		Short:   "From an EEG archive to a locally tuned IED detector operating point",
 		Long: `quorate helps an epilepsy centre build a local reference set of interictal epileptiform
 discharges (IEDs) rated against the six IFCN criteria, and tune detector cutoffs on it:
 scan the archive, detect candidates, draw a stratified sample, send blinded packets to a
@@ -95,6 +96,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 	pf.BoolVar(&g.quiet, "quiet", false, "no progress bars, warnings and errors only")
 	pf.BoolVar(&g.strict, "strict", false, "exit with code 3 when a command finishes with warnings")
 	pf.StringVar(&g.logFormat, "log-format", "text", "log format: text or json")
+	root.SetVersionTemplate(versionLine() + "\n")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 
 	// Commands are listed in the order a study runs them, not alphabetically.
@@ -121,7 +123,7 @@ func execute(args []string) int {
 	g := &globals{argv: append([]string{"quorate"}, args...), stdout: os.Stdout}
 	root := newRoot(g)
 	root.SetArgs(args)
-	err := root.ExecuteContext(context.Background())
+	cmd, err := root.ExecuteContextC(context.Background())
 	if err == nil {
 		return exitOK
 	}
@@ -130,7 +132,8 @@ func execute(args []string) int {
 	var we warningsError
 	switch {
 	case errors.As(err, &ue) || isCobraUsage(err):
-		fmt.Fprintln(os.Stderr, "Run 'quorate --help' for usage.")
+		// An unknown flag or a wrong argument count points at the help of the command it was given to.
+		fmt.Fprintf(os.Stderr, "Run '%s --help' for usage.\n", cmd.CommandPath())
 		return exitUsage
 	case errors.As(err, &we):
 		return exitWarnings
