@@ -101,7 +101,9 @@ func TestParseJSON(t *testing.T) {
 // fillSheet fills the sheet as sent out, through encoding/csv, the way a
 // spreadsheet would: cells per row keyed by column name.
 func fillSheet(t testing.TB, fill map[int]map[string]string, order []string) []byte {
-	rows, err := csv.NewReader(bytes.NewReader(fixture.sheet)).ReadAll()
+	cr := csv.NewReader(bytes.NewReader(fixture.sheet))
+	cr.Comment = '#'
+	rows, err := cr.ReadAll()
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -13,7 +13,9 @@ import (
 // lines as given.
 func sheetAs(t *testing.T, comma rune, crlf, bom bool, comments []string, row0, row1 map[string]string) []byte {
 	t.Helper()
-	rows, err := csv.NewReader(bytes.NewReader(fixture.sheet)).ReadAll()
+	cr := csv.NewReader(bytes.NewReader(fixture.sheet))
+	cr.Comment = '#'
+	rows, err := cr.ReadAll()
 	if err != nil {
 		t.Fatal(err)
 	}
