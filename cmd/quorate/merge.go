@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"strings"
 	"text/tabwriter"
 
@@ -196,4 +197,23 @@ func writeStatus(w io.Writer, st merge.Status) {
 	default:
 		fmt.Fprintf(w, "The consensus is not up to date: %s; run quorate merge.\n", st.Reason)
 	}
+}
+
+// panelReadiness gathers what tune must say about the panel's work; a study
+// whose status cannot be read gives no warnings rather than no tuning.
+func panelReadiness(s *study.Study, evs []consensus.Event, agr *consensus.Agreement) merge.Readiness {
+	r := merge.Readiness{VerdictKappa: math.NaN(), Quorum: s.Config.Panel.Quorum}
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+	if err != nil {
+		return r
+	}
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	if err != nil {
+		return r
+	}
+	st, err := merge.GetStatus(m, key, s.Path(study.ReturnsDir), s.Path(study.ConsensusDir))
+	if err != nil {
+		return r
+	}
+	return merge.PanelReadiness(st, evs, agr, s.Config.Panel.Quorum)
 }
