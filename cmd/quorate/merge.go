@@ -143,15 +143,7 @@ func newStatusCmd(g *globals) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
-			if err != nil {
-				return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
-			}
-			key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
-			if err != nil {
-				return err
-			}
-			st, err := merge.GetStatus(m, key, s.Path(study.ReturnsDir), s.Path(study.ConsensusDir))
+			st, err := studyStatus(s)
 			if err != nil {
 				return err
 			}
@@ -202,18 +194,22 @@ func writeStatus(w io.Writer, st merge.Status) {
 // panelReadiness gathers what tune must say about the panel's work; a study
 // whose status cannot be read gives no warnings rather than no tuning.
 func panelReadiness(s *study.Study, evs []consensus.Event, agr *consensus.Agreement) merge.Readiness {
-	r := merge.Readiness{VerdictKappa: math.NaN(), Quorum: s.Config.Panel.Quorum}
+	st, err := studyStatus(s)
+	if err != nil {
+		return merge.Readiness{VerdictKappa: math.NaN(), Quorum: s.Config.Panel.Quorum}
+	}
+	return merge.PanelReadiness(st, evs, agr, s.Config.Panel.Quorum)
+}
+
+// studyStatus reads the packets, the key, the returns and the consensus inputs.
+func studyStatus(s *study.Study) (merge.Status, error) {
 	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
 	if err != nil {
-		return r
+		return merge.Status{}, fmt.Errorf("no packets yet (run quorate packets first): %w", err)
 	}
 	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
 	if err != nil {
-		return r
+		return merge.Status{}, err
 	}
-	st, err := merge.GetStatus(m, key, s.Path(study.ReturnsDir), s.Path(study.ConsensusDir))
-	if err != nil {
-		return r
-	}
-	return merge.PanelReadiness(st, evs, agr, s.Config.Panel.Quorum)
+	return merge.GetStatus(m, key, s.Path(study.ReturnsDir), s.Path(study.ConsensusDir))
 }

@@ -1,10 +1,6 @@
 package merge
 
 import (
-	"bufio"
-	"encoding/json"
-	"fmt"
-	"os"
 	"sort"
 	"time"
 )
@@ -33,27 +29,7 @@ type Entry struct {
 type ItemKey struct{ Packet, Item string }
 
 // ReadLedger reads the ledger; a missing ledger is an empty one.
-func ReadLedger(path string) ([]Entry, error) {
-	f, err := os.Open(path)
-	if os.IsNotExist(err) {
-		return nil, nil
-	}
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	var out []Entry
-	sc := bufio.NewScanner(f)
-	sc.Buffer(make([]byte, 1<<20), 1<<20)
-	for line := 1; sc.Scan(); line++ {
-		var e Entry
-		if err := json.Unmarshal(sc.Bytes(), &e); err != nil {
-			return nil, fmt.Errorf("%s: line %d: %w", path, line, err)
-		}
-		out = append(out, e)
-	}
-	return out, sc.Err()
-}
+func ReadLedger(path string) ([]Entry, error) { return readJSONL[Entry](path) }
 
 func appendLedger(path string, es []Entry) error { return appendJSONL(path, es) }
 

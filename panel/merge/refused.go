@@ -20,7 +20,10 @@ type Refusal struct {
 }
 
 // ReadRefused reads the refused log; a missing log is an empty one.
-func ReadRefused(path string) ([]Refusal, error) {
+func ReadRefused(path string) ([]Refusal, error) { return readJSONL[Refusal](path) }
+
+// readJSONL reads one JSON value per line; a missing file is an empty one.
+func readJSONL[T any](path string) ([]T, error) {
 	f, err := os.Open(path)
 	if os.IsNotExist(err) {
 		return nil, nil
@@ -29,15 +32,15 @@ func ReadRefused(path string) ([]Refusal, error) {
 		return nil, err
 	}
 	defer f.Close()
-	var out []Refusal
+	var out []T
 	sc := bufio.NewScanner(f)
 	sc.Buffer(make([]byte, 1<<20), 1<<22)
 	for line := 1; sc.Scan(); line++ {
-		var r Refusal
-		if err := json.Unmarshal(sc.Bytes(), &r); err != nil {
+		var v T
+		if err := json.Unmarshal(sc.Bytes(), &v); err != nil {
 			return nil, fmt.Errorf("%s: line %d: %w", path, line, err)
 		}
-		out = append(out, r)
+		out = append(out, v)
 	}
 	return out, sc.Err()
 }
