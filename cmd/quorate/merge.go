@@ -24,9 +24,12 @@ func newMergeCmd(g *globals) *cobra.Command {
 		Short: "Merge raters' returns into the consensus and the agreement report",
 		Long: `merge checks each returned file (the review page's JSON or the filled sheet.csv) against
 the packets: packet id and check value, rater, every item code and every value. Accepted
-files are stored unchanged under returns/, named by their SHA-256 and read-only; a later
-return of the same packet supersedes the earlier one and both are kept. A refused file is
-reported with every problem and changes nothing.
+files are stored unchanged under returns/, named by their SHA-256 and read-only. Returns
+merge item by item: each item counts from the last return that gives it a value, so a blank
+or partial return never erases counted answers, and handing in an earlier file again makes
+its items count again. Items only partly filled in are not merged; they stay owed and are
+listed by item code. A refused file is reported with every problem (in returns/refused.jsonl
+too) and changes nothing. Stored returns are re-hashed before the consensus is rebuilt.
 
 It then rebuilds consensus/ratings.parquet, consensus/consensus.parquet (votes and
 majority per criterion, criteria present, the panel's verdict, the Dawid–Skene
