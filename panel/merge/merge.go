@@ -60,8 +60,8 @@ type Result struct {
 	writeErr error // storing a return failed: nothing more is written
 }
 
-// Owed lists the items of one return that were partly filled in: they are
-// not merged and the rater still owes them.
+// Owed lists the items of one return that were partly filled in and have
+// no earlier answer that counts: the rater still owes them.
 type Owed struct {
 	File, Packet, Rater string
 	Items               []string
@@ -131,6 +131,15 @@ func Run(o Options) (*Result, error) {
 	}
 	after := Counting(ledger)
 	res.Superseded = superseded(ledger, before, after)
+	// A partly filled item whose earlier answer still counts is not owed.
+	kept := res.Owed[:0]
+	for _, o := range res.Owed {
+		o.Items = slices.DeleteFunc(slices.Clone(o.Items), func(it string) bool { _, ok := after[ItemKey{o.Packet, it}]; return ok })
+		if len(o.Items) > 0 {
+			kept = append(kept, o)
+		}
+	}
+	res.Owed = kept
 	// The consensus is rebuilt only when what counts has changed (or it was never built
 	// from it), so a merge that accepts nothing changes nothing.
 	want := countingHashes(after, func(e Entry) string { return e.SHA256 })
