@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"github.com/quorate-eeg/quorate/panel/consensus"
+	"github.com/quorate-eeg/quorate/panel/returns"
 )
 
 func testOptions(t *testing.T) Options {
@@ -209,5 +210,34 @@ func TestStatusListsRefused(t *testing.T) {
 	st, _ := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
 	if len(st.Refused) != 1 || st.Refused[0].Original != filepath.Base(bad) || !strings.Contains(st.Refused[0].Reason, "check") {
 		t.Errorf("refused %+v", st.Refused)
+	}
+}
+
+// A blank return (the sheet sent back untouched) is no return: the packet
+// stays "out". A file larger than any return is refused before it is read.
+func TestBlankReturnAndSizeCap(t *testing.T) {
+	o := testOptions(t)
+	in := t.TempDir()
+	blank := editReturn(t, writeReturn(t, in, o.Manifest, 0, func(int) bool { return true }, ""), func(as []map[string]any) {
+		for _, a := range as {
+			for k := range a {
+				if k != "item" {
+					a[k] = nil
+				}
+			}
+		}
+	})
+	big := filepath.Join(in, "big.json")
+	f, _ := os.Create(big)
+	f.Truncate(returns.MaxSize + 1) // sparse: the size is there, the bytes are not
+	f.Close()
+	o.Files = []string{blank, big}
+	res, err := Run(o)
+	if err == nil || len(res.Rejected) != 1 || !strings.Contains(res.Rejected[0].Error(), "at most") {
+		t.Fatalf("err %v", err)
+	}
+	st, _ := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
+	if st.Packets[0].State != "out" || st.Packets[0].Owes != 5 {
+		t.Errorf("blank return: %+v", st.Packets[0])
 	}
 }
