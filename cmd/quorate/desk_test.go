@@ -1,6 +1,7 @@
 package main
 
 import (
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
@@ -41,5 +42,22 @@ func TestInitSecretFile(t *testing.T) {
 func TestVersionFlag(t *testing.T) {
 	if got := execute([]string{"--version"}); got != exitOK {
 		t.Errorf("--version: exit %d", got)
+	}
+}
+
+// An unknown flag points at the help of the command it was given to.
+func TestUnknownFlagPointsAtCommandHelp(t *testing.T) {
+	r, w, err := os.Pipe()
+	if err != nil {
+		t.Fatal(err)
+	}
+	old := os.Stderr
+	os.Stderr = w
+	code := execute([]string{"merge", "--no-such-flag", "x.json"})
+	w.Close()
+	os.Stderr = old
+	b, _ := io.ReadAll(r)
+	if code != exitUsage || !strings.Contains(string(b), "quorate merge --help") {
+		t.Errorf("exit %d, stderr %q", code, b)
 	}
 }
