@@ -241,3 +241,25 @@ func TestBlankReturnAndSizeCap(t *testing.T) {
 		t.Errorf("blank return: %+v", st.Packets[0])
 	}
 }
+
+// A ledger written before entries listed their items still counts item by
+// item: the items are read back from the stored returns.
+func TestLedgerWithoutItems(t *testing.T) {
+	o := testOptions(t)
+	in := t.TempDir()
+	o.Files = []string{writeReturn(t, in, o.Manifest, 0, func(int) bool { return true }, "")}
+	if _, err := Run(o); err != nil {
+		t.Fatal(err)
+	}
+	p := filepath.Join(o.ReturnsDir, LedgerFile)
+	led := mustLedger(t, o)
+	led[0].Items, led[0].Incomplete = nil, nil
+	os.Remove(p)
+	if err := appendLedger(p, led); err != nil {
+		t.Fatal(err)
+	}
+	st, err := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
+	if err != nil || st.Packets[0].State != "returned" || !st.ConsensusUpToDate {
+		t.Errorf("status %+v, %v", st, err)
+	}
+}

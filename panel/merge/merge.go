@@ -96,6 +96,7 @@ func Run(o Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	fillItems(o.ReturnsDir, o.Manifest, ledger)
 	stored := map[string]bool{}
 	for _, e := range ledger {
 		stored[e.SHA256] = true

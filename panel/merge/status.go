@@ -50,6 +50,7 @@ func GetStatus(m *packet.Manifest, key []packet.KeyRow, returnsDir, consensusDir
 	if err != nil {
 		return st, err
 	}
+	fillItems(returnsDir, m, ledger)
 	counting := Counting(ledger)
 	now := map[string]bool{}
 	for _, e := range counting {

@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 
+	"github.com/quorate-eeg/quorate/panel/packet"
 	"github.com/quorate-eeg/quorate/panel/returns"
 )
 
@@ -64,4 +65,28 @@ func VerifyStored(dir string, ledger []Entry) []error {
 		}
 	}
 	return errs
+}
+
+// fillItems gives ledger entries written before the ledger listed items
+// (Items empty, Answered > 0) their items, read from the stored return, so
+// that studies merged earlier count item by item too. A stored return that
+// cannot be read is left as it is: rebuild and VerifyStored report it.
+func fillItems(dir string, m *packet.Manifest, ledger []Entry) {
+	for i, e := range ledger {
+		if len(e.Items) > 0 || e.Answered == 0 {
+			continue
+		}
+		data, err := readStored(dir, e)
+		if err != nil {
+			continue
+		}
+		ret, err := returns.Parse(e.Original, data, m)
+		if err != nil {
+			continue
+		}
+		for _, a := range ret.Answers {
+			ledger[i].Items = append(ledger[i].Items, a.Item)
+		}
+		ledger[i].Incomplete = ret.Incomplete
+	}
 }
