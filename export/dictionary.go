@@ -82,7 +82,7 @@ var eventDocs = func() map[string]doc {
 		"criteria_present":        {"", "Number of criteria whose panel majority is 'present' (0–6).", nil},
 		"epileptiform_votes":      {"", "Raters who called the event epileptiform (an IED).", nil},
 		"not_epileptiform_votes":  {"", "Raters who called the event not epileptiform.", nil},
-		"verdict":                 {"", "Panel majority on 'epileptiform?'.", majorityLevels},
+		"verdict":                 {"", "Panel majority on 'epileptiform?', a decision in the vocabulary of the criterion columns: 'present' = the majority answered epileptiform, 'absent' = not-epileptiform (returns spell the answers epileptiform / not-epileptiform; cannot-judge answers count toward neither side nor the quorum).", majorityLevels},
 		"ds_probability":          {"", "Dawid–Skene posterior probability that the event is an IED (Dawid & Skene 1979, Applied Statistics 28:20–28); null when the model was not fitted.", nil},
 		"ref_panel":               {"", "Reference label from the panel: verdict 'present' → true, 'absent' → false, otherwise null.", nil},
 		"ref_dawid_skene":         {"", "Reference label from the Dawid–Skene model: ds_probability ≥ 0.5; null when not fitted.", nil},

@@ -3,6 +3,9 @@ package main
 import (
 	"errors"
 	"fmt"
+	"io"
+	"math"
+	"strings"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
@@ -21,9 +24,12 @@ func newMergeCmd(g *globals) *cobra.Command {
 		Short: "Merge raters' returns into the consensus and the agreement report",
 		Long: `merge checks each returned file (the review page's JSON or the filled sheet.csv) against
 the packets: packet id and check value, rater, every item code and every value. Accepted
-files are stored unchanged under returns/, named by their SHA-256 and read-only; a later
-return of the same packet supersedes the earlier one and both are kept. A refused file is
-reported with every problem and changes nothing.
+files are stored unchanged under returns/, named by their SHA-256 and read-only. Returns
+merge item by item: each item counts from the last return that gives it a value, so a blank
+or partial return never erases counted answers, and handing in an earlier file again makes
+its items count again. Items only partly filled in are not merged; they stay owed and are
+listed by item code. A refused file is reported with every problem (in returns/refused.jsonl
+too) and changes nothing. Stored returns are re-hashed before the consensus is rebuilt.
 
 It then rebuilds consensus/ratings.parquet, consensus/consensus.parquet (votes and
 majority per criterion, criteria present, the panel's verdict, the Dawid–Skene
@@ -79,7 +85,11 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		ReturnsDir: s.Path(study.ReturnsDir), ConsensusDir: s.Path(study.ConsensusDir), SubjectOf: subjectOf,
 		Quorum: s.Config.Panel.Quorum, Tie: tie, Bootstrap: s.Config.Tuning.Bootstrap, Seed: seed, Level: 0.95})
 	var rej *merge.RejectedError
-	if err != nil && !errors.As(err, &rej) {
+	var stored *merge.StoredError
+	switch {
+	case errors.As(err, &stored):
+		return fmt.Errorf("%w\n(quorate status lists every changed file)", err)
+	case err != nil && !errors.As(err, &rej):
 		return err
 	}
 	for _, e := range res.Superseded {
@@ -96,6 +106,14 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		superseded = append(superseded, e.Packet+"="+e.Stored)
 	}
 	notes["superseded"] = superseded
+	var restored, owed []string
+	for _, e := range res.Restored {
+		restored = append(restored, e.Packet+"="+e.Stored)
+	}
+	for _, o := range res.Owed {
+		owed = append(owed, o.Items...)
+	}
+	notes["restored"], notes["incomplete_items"] = restored, owed
 	seedCopy := seed
 	if rerr := s.Record(study.Entry{Version: Version, Command: "merge", Argv: g.argv, Seed: &seedCopy,
 		Inputs:  s.Hash(files...),
@@ -103,10 +121,14 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		return rerr
 	}
 	if res.Events > 0 {
-		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored, %d superseded); consensus on %d events in %s.\n",
-			len(res.Accepted), len(res.Duplicates), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
+		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored and counting, %d restored, %d no longer counting); consensus on %d events in %s.\n",
+			len(res.Accepted), len(res.Duplicates), len(res.Restored), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
 	} else {
-		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored); the consensus is unchanged.\n", len(res.Accepted), len(res.Duplicates))
+		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored and counting); the consensus is unchanged.\n", len(res.Accepted), len(res.Duplicates))
+	}
+	for _, o := range res.Owed {
+		fmt.Fprintf(g.stdout, "  %s (%s, %s): %d item(s) only partly rated, not merged and still owed: %s\n",
+			o.File, o.Packet, o.Rater, len(o.Items), strings.Join(o.Items, " "))
 	}
 	if res.Agreement != nil {
 		for _, q := range res.Agreement.Questions {
@@ -130,32 +152,73 @@ func newStatusCmd(g *globals) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
-			if err != nil {
-				return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
-			}
-			led, err := merge.ReadLedger(s.Path(study.ReturnsDir, merge.LedgerFile))
+			st, err := studyStatus(s)
 			if err != nil {
 				return err
 			}
-			st := merge.GetStatus(m, led, s.Path(study.ConsensusDir))
 			if err := s.Record(study.Entry{Version: Version, Command: "status", Argv: g.argv,
 				Inputs: s.Hash(s.Path(study.PacketsDir, "manifest.json"), s.Path(study.ReturnsDir, merge.LedgerFile)),
-				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate}}); err != nil {
+				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate, "owed": st.Owed, "refused": len(st.Refused), "damaged": len(st.Damaged)}}); err != nil {
 				return err
 			}
-			tw := tabwriter.NewWriter(g.stdout, 0, 0, 2, ' ', 0)
-			fmt.Fprintln(tw, "packet\trater\tstate\titems\towes\treturns\tsuperseded\t")
-			for _, p := range st.Packets {
-				fmt.Fprintf(tw, "%s\t%s\t%s\t%d\t%d\t%d\t%d\t\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
-			}
-			tw.Flush()
-			if st.ConsensusUpToDate {
-				fmt.Fprintln(g.stdout, "The consensus is up to date with the returns.")
-			} else {
-				fmt.Fprintf(g.stdout, "The consensus is not up to date: %s.\n", st.Reason)
-			}
+			writeStatus(g.stdout, st)
 			return nil
 		},
 	}
+}
+
+func writeStatus(w io.Writer, st merge.Status) {
+	fmt.Fprintf(w, "%d packets, %d items (%d of them hidden duplicates) showing %d events; %d items owed.\n",
+		len(st.Packets), st.Items, st.Duplicates, st.Events, st.Owed)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "packet\trater\tstate\titems\towes\treturns\tsuperseded\t")
+	for _, p := range st.Packets {
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%d\t%d\t%d\t%d\t\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
+	}
+	tw.Flush()
+	for _, p := range st.Packets {
+		if p.Owes > 0 && p.Owes < p.Items {
+			fmt.Fprintf(w, "%s owes in %s: %s\n", p.Rater, p.Packet, strings.Join(p.OwedItems, " "))
+		}
+		if len(p.Incomplete) > 0 {
+			fmt.Fprintf(w, "  of which partly rated: %s\n", strings.Join(p.Incomplete, " "))
+		}
+	}
+	for _, r := range st.Refused {
+		fmt.Fprintf(w, "Refused %s (%s): %s\n", r.Original, r.Time.Format("2006-01-02 15:04"), strings.ReplaceAll(r.Reason, "\n", "\n  "))
+	}
+	for _, d := range st.Damaged {
+		fmt.Fprintf(w, "Damaged: %s\n", d)
+	}
+	switch {
+	case st.ConsensusUpToDate:
+		fmt.Fprintln(w, "The consensus is up to date with the returns.")
+	case len(st.Damaged) > 0:
+		fmt.Fprintf(w, "The consensus cannot be trusted: %s; restore them from a backup.\n", st.Reason)
+	default:
+		fmt.Fprintf(w, "The consensus is not up to date: %s; run quorate merge.\n", st.Reason)
+	}
+}
+
+// panelReadiness gathers what tune must say about the panel's work; a study
+// whose status cannot be read gives no warnings rather than no tuning.
+func panelReadiness(s *study.Study, evs []consensus.Event, agr *consensus.Agreement) merge.Readiness {
+	st, err := studyStatus(s)
+	if err != nil {
+		return merge.Readiness{VerdictKappa: math.NaN(), Quorum: s.Config.Panel.Quorum}
+	}
+	return merge.PanelReadiness(st, evs, agr, s.Config.Panel.Quorum)
+}
+
+// studyStatus reads the packets, the key, the returns and the consensus inputs.
+func studyStatus(s *study.Study) (merge.Status, error) {
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+	if err != nil {
+		return merge.Status{}, fmt.Errorf("no packets yet (run quorate packets first): %w", err)
+	}
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	if err != nil {
+		return merge.Status{}, err
+	}
+	return merge.GetStatus(m, key, s.Path(study.ReturnsDir), s.Path(study.ConsensusDir))
 }

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -129,6 +130,11 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	}
 	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
 		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir)})
+	var exists *packet.ExistsError
+	if errors.As(err, &exists) {
+		// The domain names no flags; the command does.
+		return fmt.Errorf("%s already exists: add --replace to move the earlier packets aside (they are kept)", exists.Path)
+	}
 	if err != nil {
 		return err
 	}
@@ -138,9 +144,20 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 		Notes: map[string]any{"raters": raters, "items": len(items)}}); err != nil {
 		return err
 	}
-	fmt.Fprintf(g.stdout, "Built %d packets of %d events:\n", len(res.Packets), len(items))
+	// The same three counts as status prints: events, items (showings) and hidden duplicates.
+	perPacket := map[string][2]int{}
+	for _, k := range res.Key {
+		c := perPacket[k.Packet]
+		c[0]++
+		if k.Duplicate {
+			c[1]++
+		}
+		perPacket[k.Packet] = c
+	}
+	fmt.Fprintf(g.stdout, "Built %d packets of %d events, %d items in all (hidden duplicates included):\n", len(res.Packets), len(items), len(res.Key))
 	for _, p := range res.Packets {
-		fmt.Fprintf(g.stdout, "  %-16s %s (%.1f MB) and %s\n", p.Rater, p.Page, float64(p.PageBytes)/1e6, p.Sheet)
+		c := perPacket[p.Packet]
+		fmt.Fprintf(g.stdout, "  %-16s %d items (%d hidden duplicates): %s (%.1f MB) and %s\n", p.Rater, c[0], c[1], p.Page, float64(p.PageBytes)/1e6, p.Sheet)
 	}
 	fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, "key.parquet"))
 	return g.finish(len(warns))

@@ -57,8 +57,9 @@ var caution = wrap(cautionText.Text, 90)
 
 func newRoot(g *globals) *cobra.Command {
 	root := &cobra.Command{
-		Use:   "quorate",
-		Short: "From an EEG archive to a locally tuned IED detector operating point",
+		Version: Version,
+		Use:     "quorate",
+		Short:   "From an EEG archive to a locally tuned IED detector operating point",
 		Long: `quorate helps an epilepsy centre build a local reference set of interictal epileptiform
 discharges (IEDs) rated against the six IFCN criteria, and tune detector cutoffs on it:
 scan the archive, detect candidates, draw a stratified sample, send blinded packets to a
@@ -98,6 +99,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 	pf.BoolVar(&g.strict, "strict", false, "exit with code 3 when a command finishes with warnings")
 	pf.StringVar(&g.logFormat, "log-format", "text", "log format: text or json")
 	pf.BoolVar(&g.force, "force", false, "go on although an earlier stage's outputs are of another generation than its inputs")
+	root.SetVersionTemplate(versionLine() + "\n")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })
 
 	// Commands are listed in the order a study runs them, not alphabetically.
@@ -129,7 +131,7 @@ func execute(args []string) int {
 	g := &globals{argv: append([]string{"quorate"}, args...), stdout: os.Stdout, stderr: os.Stderr}
 	root := newRoot(g)
 	root.SetArgs(args)
-	err := root.ExecuteContext(context.Background())
+	cmd, err := root.ExecuteContextC(context.Background())
 	if err == nil {
 		return exitOK
 	}
@@ -138,7 +140,8 @@ func execute(args []string) int {
 	var we warningsError
 	switch {
 	case errors.As(err, &ue) || isCobraUsage(err):
-		fmt.Fprintln(g.errOut(), "Run 'quorate --help' for usage.")
+		// An unknown flag or a wrong argument count points at the help of the command it was given to.
+		fmt.Fprintf(g.errOut(), "Run '%s --help' for usage.\n", cmd.CommandPath())
 		return exitUsage
 	case errors.As(err, &we):
 		return exitWarnings

@@ -136,15 +136,20 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	for _, r := range recs {
 		hours += r.DurationS / 3600
 	}
-	res, err := tuning.Run(ctx, tuning.Options{Events: events, RecordingHours: hours, Policy: pol,
-		Folds: f.folds, Bootstrap: f.bootstrap, Method: f.method, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
-	if err != nil {
-		return err
-	}
 	agr, err := readAgreement(s.Path(study.ConsensusDir, merge.AgreementJSON))
 	if err != nil {
 		return err
 	}
+	ready := panelReadiness(s, evs, agr)
+	res, err := tuning.Run(ctx, tuning.Options{Events: events, RecordingHours: hours, Policy: pol,
+		Folds: f.folds, Bootstrap: f.bootstrap, Method: f.method, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
+	if err != nil {
+		if ready.NoEventReachedQuorum() && strings.HasPrefix(f.reference, "panel") {
+			return fmt.Errorf("no event reached the panel's quorum of %d answers (%d of %d packets outstanding): merge more returns, then tune", ready.Quorum, ready.OutstandingPackets, ready.Packets)
+		}
+		return err
+	}
+	res.Warnings = append(ready.Warnings(), res.Warnings...)
 	inputs := s.Hash(consPath, drawPath, indexPath, s.Path(study.CandidatesDir))
 	hashes := map[string]string{}
 	for _, h := range inputs {

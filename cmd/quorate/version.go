@@ -14,8 +14,13 @@ func newVersionCmd(g *globals) *cobra.Command {
 		Example: "  quorate version",
 		Args:    cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
-			fmt.Fprintf(g.stdout, "quorate %s (%s, %s/%s)\n", Version, runtime.Version(), runtime.GOOS, runtime.GOARCH)
+			fmt.Fprintln(g.stdout, versionLine())
 			return nil
 		},
 	}
+}
+
+// versionLine is what both `quorate version` and `quorate --version` print.
+func versionLine() string {
+	return fmt.Sprintf("quorate %s (%s, %s/%s)", Version, runtime.Version(), runtime.GOOS, runtime.GOARCH)
 }

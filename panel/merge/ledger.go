@@ -1,10 +1,7 @@
 package merge
 
 import (
-	"bufio"
-	"encoding/json"
-	"fmt"
-	"os"
+	"sort"
 	"time"
 )
 
@@ -19,57 +16,46 @@ type Entry struct {
 	Rater    string    `json:"rater"`
 	Answered int       `json:"answered"`
 	Unrated  int       `json:"unrated"`
+	// Items are the item codes the return gives a value for; Incomplete
+	// those it fills in only partly (owed, not merged). Remerge marks a
+	// file already stored and handed to merge again, so that its items
+	// count again.
+	Items      []string `json:"items,omitempty"`
+	Incomplete []string `json:"incomplete,omitempty"`
+	Remerge    bool     `json:"remerge,omitempty"`
 }
+
+// ItemKey names one item of one packet.
+type ItemKey struct{ Packet, Item string }
 
 // ReadLedger reads the ledger; a missing ledger is an empty one.
-func ReadLedger(path string) ([]Entry, error) {
-	f, err := os.Open(path)
-	if os.IsNotExist(err) {
-		return nil, nil
-	}
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	var out []Entry
-	sc := bufio.NewScanner(f)
-	sc.Buffer(make([]byte, 1<<20), 1<<20)
-	for line := 1; sc.Scan(); line++ {
-		var e Entry
-		if err := json.Unmarshal(sc.Bytes(), &e); err != nil {
-			return nil, fmt.Errorf("%s: line %d: %w", path, line, err)
-		}
-		out = append(out, e)
-	}
-	return out, sc.Err()
-}
+func ReadLedger(path string) ([]Entry, error) { return readJSONL[Entry](path) }
 
-func appendLedger(path string, es []Entry) error {
-	f, err := os.OpenFile(path, os.O_WRONLY|os.O_APPEND|os.O_CREATE, 0o644)
-	if err != nil {
-		return err
-	}
-	var buf []byte
-	for _, e := range es {
-		b, err := json.Marshal(e)
-		if err != nil {
-			f.Close()
-			return err
-		}
-		buf = append(append(buf, b...), '\n')
-	}
-	if _, err := f.Write(buf); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
-}
+func appendLedger(path string, es []Entry) error { return appendJSONL(path, es) }
 
-// Counting returns, per packet, the ledger entry that counts: the last one merged.
-func Counting(ledger []Entry) map[string]Entry {
-	m := map[string]Entry{}
+// Counting returns, per item, the ledger entry that counts for it: the last
+// one merged that gives the item a value. A blank or partly filled item gives
+// none, so a later return never erases an answer that counts.
+func Counting(ledger []Entry) map[ItemKey]Entry {
+	m := map[ItemKey]Entry{}
 	for _, e := range ledger {
-		m[e.Packet] = e
+		for _, it := range e.Items {
+			m[ItemKey{e.Packet, it}] = e
+		}
 	}
 	return m
+}
+
+// countingHashes returns the sorted distinct returns that count for some item.
+func countingHashes[V any](c map[ItemKey]V, hash func(V) string) []string {
+	seen := map[string]bool{}
+	var out []string
+	for _, v := range c {
+		if h := hash(v); !seen[h] {
+			seen[h] = true
+			out = append(out, h)
+		}
+	}
+	sort.Strings(out)
+	return out
 }

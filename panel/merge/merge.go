@@ -49,11 +49,22 @@ type Options struct {
 // Result says what a merge did.
 type Result struct {
 	Accepted   []Entry
-	Duplicates []string // files already stored (same content)
-	Superseded []Entry  // earlier returns that no longer count
+	Duplicates []string // files already stored whose items already count
+	Restored   []Entry  // files already stored whose items count again
+	Superseded []Entry  // earlier returns none of whose items count any more
 	Rejected   []error  // one *returns.Error (or other error) per rejected file
+	Owed       []Owed   // per merged return, the items it leaves partly filled in
 	Events     int
 	Agreement  *consensus.Agreement
+
+	writeErr error // storing a return failed: nothing more is written
+}
+
+// Owed lists the items of one return that were partly filled in and have
+// no earlier answer that counts: the rater still owes them.
+type Owed struct {
+	File, Packet, Rater string
+	Items               []string
 }
 
 // RejectedError is returned when some files were refused; the accepted ones were merged.
@@ -67,19 +78,25 @@ func (e *RejectedError) Error() string {
 	return fmt.Sprintf("%d file(s) refused, nothing of them was merged:\n%s", len(e.Errs), strings.Join(msgs, "\n"))
 }
 
-// Run merges the files and rebuilds the consensus.
+// ErrNoManifest is returned when there are no packets to check returns against.
+var ErrNoManifest = errors.New("no packet manifest: returns cannot be checked")
+
+// Run merges the files at item level and rebuilds the consensus: a return
+// counts for the items it gives a value for, and a later return replaces an
+// earlier one only there.
 func Run(o Options) (*Result, error) {
 	if o.Now == nil {
 		o.Now = time.Now
 	}
 	if o.Manifest == nil {
-		return nil, errors.New("no packets yet: run quorate packets first")
+		return nil, ErrNoManifest
 	}
 	ledgerPath := filepath.Join(o.ReturnsDir, LedgerFile)
 	ledger, err := ReadLedger(ledgerPath)
 	if err != nil {
 		return nil, err
 	}
+	fillItems(o.ReturnsDir, o.Manifest, ledger)
 	stored := map[string]bool{}
 	for _, e := range ledger {
 		stored[e.SHA256] = true
@@ -87,31 +104,25 @@ func Run(o Options) (*Result, error) {
 	before := Counting(ledger)
 	res := &Result{}
 	var add []Entry
+	var refused []Refusal
 	for _, f := range o.Files {
-		data, err := os.ReadFile(f)
-		if err != nil {
-			res.Rejected = append(res.Rejected, err)
-			continue
+		data, err := readReturn(f)
+		if err == nil {
+			var ret *returns.Return
+			ret, err = returns.Parse(f, data, o.Manifest)
+			if err == nil {
+				add = accept(o, res, add, before, stored, f, data, ret)
+				continue
+			}
 		}
-		ret, err := returns.Parse(f, data, o.Manifest)
-		if err != nil {
-			res.Rejected = append(res.Rejected, err)
-			continue
-		}
-		sum := sha256.Sum256(data)
-		h := hex.EncodeToString(sum[:])
-		if stored[h] {
-			res.Duplicates = append(res.Duplicates, f)
-			continue
-		}
-		name := h + "." + ret.Kind
-		if err := atomicfile.Create(filepath.Join(o.ReturnsDir, name), data, 0o444); err != nil && !errors.Is(err, os.ErrExist) {
-			return nil, err
-		}
-		stored[h] = true
-		e := Entry{Time: o.Now().UTC(), Original: filepath.Base(f), SHA256: h, Stored: name, Kind: ret.Kind,
-			Packet: ret.Packet, Rater: ret.Rater, Answered: len(ret.Answers), Unrated: len(ret.Unrated)}
-		add = append(add, e)
+		res.Rejected = append(res.Rejected, err)
+		refused = append(refused, Refusal{Time: o.Now().UTC(), Original: filepath.Base(f), Reason: err.Error()})
+	}
+	if err := appendRefused(filepath.Join(o.ReturnsDir, RefusedFile), refused); err != nil {
+		return nil, err
+	}
+	if res.writeErr != nil {
+		return nil, res.writeErr
 	}
 	if len(add) > 0 {
 		if err := appendLedger(ledgerPath, add); err != nil {
@@ -119,17 +130,22 @@ func Run(o Options) (*Result, error) {
 		}
 		ledger = append(ledger, add...)
 	}
-	res.Accepted = add
 	after := Counting(ledger)
-	for p, e := range before {
-		if after[p].SHA256 != e.SHA256 {
-			res.Superseded = append(res.Superseded, e)
+	res.Superseded = superseded(ledger, before, after)
+	// A partly filled item whose earlier answer still counts is not owed.
+	kept := res.Owed[:0]
+	for _, o := range res.Owed {
+		o.Items = slices.DeleteFunc(slices.Clone(o.Items), func(it string) bool { _, ok := after[ItemKey{o.Packet, it}]; return ok })
+		if len(o.Items) > 0 {
+			kept = append(kept, o)
 		}
 	}
+	res.Owed = kept
 	// The consensus is rebuilt only when what counts has changed (or it was never built
 	// from it), so a merge that accepts nothing changes nothing.
-	if len(after) > 0 && (len(add) > 0 || !builtFrom(o.ConsensusDir, after)) {
-		if err := rebuild(o, after, res); err != nil {
+	want := countingHashes(after, func(e Entry) string { return e.SHA256 })
+	if len(after) > 0 && (len(add) > 0 || !builtFrom(o.ConsensusDir, want)) {
+		if err := rebuild(o, ledger, res); err != nil {
 			return nil, err
 		}
 	}
@@ -139,48 +155,139 @@ func Run(o Options) (*Result, error) {
 	return res, nil
 }
 
-// rebuild recomputes the consensus from the returns that count.
-func rebuild(o Options, counting map[string]Entry, res *Result) error {
-	type codeKey struct{ packet, item string }
-	key := make(map[codeKey]packet.KeyRow, len(o.Key))
-	for _, k := range o.Key {
-		key[codeKey{k.Packet, k.Item}] = k
+// readReturn reads a handed-in file, refusing one larger than any return
+// before reading it whole.
+func readReturn(f string) ([]byte, error) {
+	st, err := os.Stat(f)
+	if err != nil {
+		return nil, err
 	}
-	packets := make([]string, 0, len(counting))
-	for p := range counting {
-		packets = append(packets, p)
+	if st.Size() > returns.MaxSize {
+		return nil, &returns.Error{File: f, Problems: []returns.Problem{{Got: fmt.Sprintf("%d bytes", st.Size()),
+			Want: fmt.Sprintf("at most %d bytes (a return of one packet)", returns.MaxSize)}}}
 	}
-	sort.Strings(packets)
-	var ratings []consensus.Rating
-	var hashes []string
-	for _, p := range packets {
-		e := counting[p]
-		hashes = append(hashes, e.SHA256)
-		data, err := os.ReadFile(filepath.Join(o.ReturnsDir, e.Stored))
-		if err != nil {
-			return fmt.Errorf("stored return %s: %w", e.Stored, err)
+	return os.ReadFile(f)
+}
+
+// accept stores a checked return (create-only, read-only, named by its
+// SHA-256) and appends its ledger entry to add. A file already stored gets a
+// new entry only when some of its items no longer count from it, so that
+// handing it in again restores them.
+func accept(o Options, res *Result, add []Entry, counting map[ItemKey]Entry, stored map[string]bool, f string, data []byte, ret *returns.Return) []Entry {
+	sum := sha256.Sum256(data)
+	h := hex.EncodeToString(sum[:])
+	items := make([]string, len(ret.Answers))
+	for i, a := range ret.Answers {
+		items[i] = a.Item
+	}
+	e := Entry{Time: o.Now().UTC(), Original: filepath.Base(f), SHA256: h, Stored: h + "." + ret.Kind, Kind: ret.Kind,
+		Packet: ret.Packet, Rater: ret.Rater, Answered: len(ret.Answers), Unrated: len(ret.Unrated),
+		Items: items, Incomplete: ret.Incomplete}
+	if len(ret.Incomplete) > 0 {
+		res.Owed = append(res.Owed, Owed{File: filepath.Base(f), Packet: ret.Packet, Rater: ret.Rater, Items: ret.Incomplete})
+	}
+	if stored[h] {
+		for _, prev := range add {
+			if prev.SHA256 == h {
+				res.Duplicates = append(res.Duplicates, f)
+				return add
+			}
 		}
-		ret, err := returns.Parse(e.Original, data, o.Manifest)
-		if err != nil {
-			return fmt.Errorf("stored return %s no longer parses: %w", e.Stored, err)
+		restores := false
+		for _, it := range items {
+			restores = restores || counting[ItemKey{ret.Packet, it}].SHA256 != h
+		}
+		if !restores {
+			res.Duplicates = append(res.Duplicates, f)
+			return add
+		}
+		e.Remerge = true
+		res.Restored = append(res.Restored, e)
+		return append(add, e)
+	}
+	if err := atomicfile.Create(filepath.Join(o.ReturnsDir, e.Stored), data, 0o444); err != nil && !errors.Is(err, os.ErrExist) {
+		if res.writeErr == nil {
+			res.writeErr = err
+		}
+		return add
+	}
+	stored[h] = true
+	res.Accepted = append(res.Accepted, e)
+	return append(add, e)
+}
+
+// superseded lists the returns that counted for some item before and count
+// for none now.
+func superseded(ledger []Entry, before, after map[ItemKey]Entry) []Entry {
+	now := map[string]bool{}
+	for _, e := range after {
+		now[e.SHA256] = true
+	}
+	var out []Entry
+	seen := map[string]bool{}
+	for _, e := range before {
+		if !now[e.SHA256] && !seen[e.SHA256] {
+			seen[e.SHA256] = true
+			out = append(out, e)
+		}
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Stored < out[j].Stored })
+	return out
+}
+
+// rebuild recomputes the consensus from the ledger: every stored return is
+// re-hashed against its name, re-checked, and each item takes the answer of
+// the last return that gives it one.
+func rebuild(o Options, ledger []Entry, res *Result) error {
+	key := make(map[ItemKey]packet.KeyRow, len(o.Key))
+	for _, k := range o.Key {
+		key[ItemKey{k.Packet, k.Item}] = k
+	}
+	type counted struct {
+		ret  *returns.Return
+		a    returns.Answer
+		hash string
+	}
+	best := map[ItemKey]counted{}
+	parsed := map[string]*returns.Return{}
+	for _, e := range ledger {
+		ret, ok := parsed[e.SHA256]
+		if !ok {
+			data, err := readStored(o.ReturnsDir, e)
+			if err != nil {
+				return err
+			}
+			if ret, err = returns.Parse(e.Original, data, o.Manifest); err != nil {
+				return fmt.Errorf("stored return %s no longer passes the checks: %w", e.Stored, err)
+			}
+			parsed[e.SHA256] = ret
 		}
 		for _, a := range ret.Answers {
-			k, ok := key[codeKey{ret.Packet, a.Item}]
-			if !ok {
-				return fmt.Errorf("return %s: item %s of packet %s is not in key.parquet", e.Original, a.Item, ret.Packet)
-			}
-			ratings = append(ratings, ratingOf(ret, a, k, e.SHA256))
+			best[ItemKey{ret.Packet, a.Item}] = counted{ret, a, e.SHA256}
 		}
 	}
-	sort.SliceStable(ratings, func(i, j int) bool {
-		if ratings[i].EventID != ratings[j].EventID {
-			return ratings[i].EventID < ratings[j].EventID
+	var ratings []consensus.Rating
+	for ik, c := range best {
+		k, ok := key[ik]
+		if !ok {
+			return fmt.Errorf("return %s: item %s of packet %s is not in the packet key", c.ret.File, ik.Item, ik.Packet)
 		}
-		if ratings[i].Rater != ratings[j].Rater {
-			return ratings[i].Rater < ratings[j].Rater
+		ratings = append(ratings, ratingOf(c.ret, c.a, k, c.hash))
+	}
+	sort.Slice(ratings, func(i, j int) bool {
+		a, b := ratings[i], ratings[j]
+		if a.EventID != b.EventID {
+			return a.EventID < b.EventID
 		}
-		return !ratings[i].Duplicate && ratings[j].Duplicate
+		if a.Rater != b.Rater {
+			return a.Rater < b.Rater
+		}
+		if a.Duplicate != b.Duplicate {
+			return !a.Duplicate
+		}
+		return a.ItemCode < b.ItemCode
 	})
+	hashes := countingHashes(best, func(c counted) string { return c.hash })
 	events := consensus.Build(ratings, o.Quorum, o.Tie)
 	res.Events = len(events)
 	agr, ds, err := consensus.Measure(ratings, o.SubjectOf, o.Bootstrap, o.Seed, o.Level)
@@ -215,9 +322,9 @@ func rebuild(o Options, counting map[string]Entry, res *Result) error {
 	return atomicfile.WriteBytes(filepath.Join(dir, InputsFile), append(b, '\n'), 0o644)
 }
 
-// builtFrom reports whether the consensus in dir was built from exactly the returns
-// that count.
-func builtFrom(dir string, counting map[string]Entry) bool {
+// builtFrom reports whether the consensus in dir was built from exactly the
+// returns (sorted SHA-256s) that count.
+func builtFrom(dir string, want []string) bool {
 	b, err := os.ReadFile(filepath.Join(dir, InputsFile))
 	if err != nil {
 		return false
@@ -226,11 +333,6 @@ func builtFrom(dir string, counting map[string]Entry) bool {
 	if json.Unmarshal(b, &in) != nil {
 		return false
 	}
-	want := make([]string, 0, len(counting))
-	for _, e := range counting {
-		want = append(want, e.SHA256)
-	}
-	sort.Strings(want)
 	sort.Strings(in.Returns)
 	return slices.Equal(want, in.Returns)
 }

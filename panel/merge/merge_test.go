@@ -116,7 +116,7 @@ func TestMergeStoresSupersedesAndRefuses(t *testing.T) {
 	if len(rs) != 10 {
 		t.Errorf("%d ratings, want 10 (2 raters × 5 items)", len(rs))
 	}
-	st := GetStatus(m, mustLedger(t, o), o.ConsensusDir)
+	st, _ := GetStatus(m, key, o.ReturnsDir, o.ConsensusDir)
 	if !st.ConsensusUpToDate || st.Packets[2].State != "out" || st.Packets[0].State != "returned" {
 		t.Errorf("status %+v", st)
 	}
@@ -147,7 +147,7 @@ func TestMergeStoresSupersedesAndRefuses(t *testing.T) {
 	if evs[0].Verdict != "absent" || evs[0].VerdictYes != 1 || evs[0].VerdictNo != 1 {
 		t.Errorf("after supersede: %+v", evs[0])
 	}
-	st = GetStatus(m, led, o.ConsensusDir)
+	st, _ = GetStatus(m, key, o.ReturnsDir, o.ConsensusDir)
 	if st.Packets[0].Returns != 2 || st.Packets[0].Superseded != 1 {
 		t.Errorf("status %+v", st.Packets[0])
 	}

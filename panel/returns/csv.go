@@ -16,12 +16,54 @@ import (
 var requiredColumns = []string{"packet", "check", "rater", "item", "c1", "c2", "c3", "c4", "c5", "c6", "verdict"}
 
 // Spreadsheet users type answers by hand, so cells are trimmed, compared
-// ignoring case, and these short forms are accepted.
+// ignoring case, and these short forms are accepted (FORMAT.md lists them).
+// For a criterion yes/no say whether it is present; for the verdict "yes"
+// is deliberately not accepted, since "n"/"no" must then mean
+// not-epileptiform and a bare "y"/"yes" reads too easily as "yes, judged".
 var (
-	presenceAlias = map[string]string{"present": "present", "p": "present", "absent": "absent", "a": "absent"}
-	verdictAlias  = map[string]string{"epileptiform": "epileptiform", "e": "epileptiform",
-		"not-epileptiform": "not-epileptiform", "not epileptiform": "not-epileptiform", "n": "not-epileptiform"}
+	cannotJudgeAlias = map[string]string{"cannot-judge": "cannot-judge", "cannot judge": "cannot-judge", "cj": "cannot-judge", "?": "cannot-judge"}
+	presenceAlias    = withAlias(map[string]string{"present": "present", "p": "present", "yes": "present", "y": "present", "1": "present",
+		"absent": "absent", "a": "absent", "no": "absent", "n": "absent", "0": "absent"}, cannotJudgeAlias)
+	verdictAlias = withAlias(map[string]string{"epileptiform": "epileptiform", "e": "epileptiform",
+		"not-epileptiform": "not-epileptiform", "not epileptiform": "not-epileptiform", "n": "not-epileptiform", "ne": "not-epileptiform"}, cannotJudgeAlias)
 )
+
+func withAlias(m, more map[string]string) map[string]string {
+	for k, v := range more {
+		m[k] = v
+	}
+	return m
+}
+
+// sniffSeparator picks the field separator of a sheet from its header line
+// (the first line not starting with '#'): the most frequent of comma,
+// semicolon and tab outside quotes. Spreadsheets in locales with a decimal
+// comma save CSV with semicolons; exported tables often use tabs.
+func sniffSeparator(data []byte) rune {
+	for line := range bytes.Lines(data) {
+		if bytes.HasPrefix(bytes.TrimLeft(line, " "), []byte("#")) || len(bytes.TrimSpace(line)) == 0 {
+			continue
+		}
+		n := map[rune]int{}
+		quoted := false
+		for _, c := range string(line) {
+			switch {
+			case c == '"':
+				quoted = !quoted
+			case !quoted && (c == ',' || c == ';' || c == '\t'):
+				n[c]++
+			}
+		}
+		best := ','
+		for _, c := range []rune{';', '\t'} {
+			if n[c] > n[best] {
+				best = c
+			}
+		}
+		return best
+	}
+	return ','
+}
 
 // readCSV extracts a filled sheet (RFC 4180; encoding/csv). Columns are
 // matched by header name in any order; the packet, check and rater repeated
@@ -29,6 +71,8 @@ var (
 func readCSV(data []byte, add func(int, string, string, string)) (h head, out []raw) {
 	r := csv.NewReader(bytes.NewReader(data))
 	r.FieldsPerRecord = -1
+	r.Comma = sniffSeparator(data)
+	r.Comment = '#' // the sheet's header lines listing the allowed values
 	var col map[string]int
 	var header []string
 	firstRow := map[string]int{}

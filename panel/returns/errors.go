@@ -16,6 +16,7 @@ type Error struct {
 // means the whole file. Field names the column, or a JSON path such as
 // "answers[3].c2".
 type Problem struct {
+	Item  string // the item code the problem concerns, when known
 	Row   int
 	Field string
 	Got   string
@@ -24,11 +25,19 @@ type Problem struct {
 
 func (p Problem) String() string {
 	var b strings.Builder
-	if p.Row > 0 {
+	field := p.Field
+	switch {
+	case p.Item != "" && strings.HasPrefix(field, "answers["):
+		// A JSON answer's index means nothing to a rater; its item code does.
+		fmt.Fprintf(&b, "item %s: ", p.Item)
+		field = field[strings.IndexByte(field, '.')+1:]
+	case p.Item != "":
+		fmt.Fprintf(&b, "item %s (row %d): ", p.Item, p.Row)
+	case p.Row > 0:
 		fmt.Fprintf(&b, "row %d: ", p.Row)
 	}
-	if p.Field != "" {
-		fmt.Fprintf(&b, "%s: ", p.Field)
+	if field != "" {
+		fmt.Fprintf(&b, "%s: ", field)
 	}
 	fmt.Fprintf(&b, "got %q, want %s", p.Got, p.Want)
 	return b.String()

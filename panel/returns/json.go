@@ -18,6 +18,10 @@ var (
 // readJSON extracts a JSON return. Values are taken as written: the page
 // writes canonical ones, so nothing is lower-cased or aliased here.
 func readJSON(data []byte, add func(int, string, string, string)) (h head, out []raw) {
+	if k := duplicateKey(data); k != "" {
+		add(0, k, "the key given twice", "each key once in its object")
+		return h, nil
+	}
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.UseNumber()
 	var top map[string]json.RawMessage

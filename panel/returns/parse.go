@@ -53,9 +53,11 @@ func Parse(name string, data []byte, m *packet.Manifest) (*Return, error) {
 	case bytes.HasPrefix(data, []byte{0xFE, 0xFF}) || bytes.HasPrefix(data, []byte{0xFF, 0xFE}):
 		add(0, "encoding", "UTF-16 (byte-order mark)", "UTF-8 without a byte-order mark (in a spreadsheet choose \"CSV UTF-8\" or plain CSV)")
 		return nil, e
+	case len(data) > MaxSize:
+		add(0, "", fmt.Sprintf("%d bytes", len(data)), fmt.Sprintf("at most %d bytes (a return of one packet)", MaxSize))
+		return nil, e
 	case bytes.HasPrefix(data, []byte{0xEF, 0xBB, 0xBF}):
-		// Report, then read on: the rest can still hold problems worth fixing in the same round.
-		add(0, "encoding", "a UTF-8 byte-order mark", "UTF-8 without a byte-order mark (re-save the sheet as plain CSV)")
+		// Spreadsheets save "CSV UTF-8" with the signature (Unicode §23.8); it carries no data.
 		data = data[3:]
 	}
 	if len(bytes.TrimSpace(data)) == 0 {
@@ -80,10 +82,27 @@ func Parse(name string, data []byte, m *packet.Manifest) (*Return, error) {
 		h, answers = readCSV(data, add)
 	}
 	r := check(name, kind, h, answers, m, add)
+	nameItems(e.Problems, answers)
 	if len(e.Problems) > 0 {
 		return nil, e
 	}
 	return r, nil
+}
+
+// nameItems gives each problem of an answer the item code it concerns, so
+// that a rater reads "item G28ZJY" rather than a row or an array index.
+func nameItems(ps []Problem, answers []raw) {
+	byRow := make(map[int]string, len(answers))
+	for _, a := range answers {
+		if a.item != "" {
+			byRow[a.row] = a.item
+		}
+	}
+	for i := range ps {
+		if ps[i].Row > 0 && ps[i].Item == "" && !strings.HasSuffix(ps[i].Field, "item") {
+			ps[i].Item = byRow[ps[i].Row]
+		}
+	}
 }
 
 func firstInvalid(b []byte) int {
@@ -127,7 +146,7 @@ func check(name, kind string, h head, answers []raw, m *packet.Manifest, add fun
 		}
 	}
 	first := map[string]int{}
-	answered := map[string]bool{}
+	answered, incomplete := map[string]bool{}, map[string]bool{}
 	for _, a := range answers {
 		ok := true
 		switch {
@@ -154,31 +173,28 @@ func check(name, kind string, h head, answers []raw, m *packet.Manifest, add fun
 			continue // left blank: not rated yet
 		}
 		ans := Answer{Item: a.item, Comment: a.comment}
+		missing := false
 		for k, c := range a.crit {
 			f := fmt.Sprintf("%sc%d", a.path, k+1)
 			switch Presence(c) {
-			case Present, Absent:
+			case Present, Absent, CannotJudge:
 				ans.Criteria[k] = Presence(c)
 			case "":
-				if !a.bad[fmt.Sprintf("c%d", k+1)] {
-					add(a.row, f, "", "present or absent (every criterion is needed once an item is rated)")
-				}
-				ok = false
+				// A half-rated item is owed, not wrong: it stays out of the
+				// merge and the complete items merge without it.
+				missing = missing || !a.bad[fmt.Sprintf("c%d", k+1)]
 			default:
-				add(a.row, f, c, "present or absent")
+				add(a.row, f, c, "present, absent or cannot-judge")
 				ok = false
 			}
 		}
 		switch Verdict(a.verdict) {
-		case Epileptiform, NotEpileptiform:
+		case Epileptiform, NotEpileptiform, VerdictCannotJudge:
 			ans.Verdict = Verdict(a.verdict)
 		case "":
-			if !a.bad["verdict"] {
-				add(a.row, a.path+"verdict", "", "epileptiform or not-epileptiform (needed once an item is rated)")
-			}
-			ok = false
+			missing = missing || !a.bad["verdict"]
 		default:
-			add(a.row, a.path+"verdict", a.verdict, "epileptiform or not-epileptiform")
+			add(a.row, a.path+"verdict", a.verdict, "epileptiform, not-epileptiform or cannot-judge")
 			ok = false
 		}
 		if a.conf != "" {
@@ -193,6 +209,10 @@ func check(name, kind string, h head, answers []raw, m *packet.Manifest, add fun
 			add(a.row, a.path+"comment", a.comment[:40]+"…", "at most 2000 bytes")
 			ok = false
 		}
+		if ok && missing && a.item != "" {
+			incomplete[a.item] = true
+			continue
+		}
 		if ok {
 			answered[a.item] = true
 			r.Answers = append(r.Answers, ans)
@@ -202,6 +222,9 @@ func check(name, kind string, h head, answers []raw, m *packet.Manifest, add fun
 		for _, c := range entry.Items {
 			if !answered[c] {
 				r.Unrated = append(r.Unrated, c)
+			}
+			if incomplete[c] {
+				r.Incomplete = append(r.Incomplete, c)
 			}
 		}
 	}

@@ -102,11 +102,17 @@ func prepare(f *Frame, d Design) (*frameDesign, error) {
 			s := f.Subject[r]
 			bySubject[s] = append(bySubject[s], r)
 		}
+		// Subjects are taken in the order of their first event ID, not of their
+		// keys: subject keys are keyed with the study secret, and the draw must
+		// depend only on the candidates and the seed.
 		subjects := make([]string, 0, len(bySubject))
-		for s := range bySubject {
-			subjects = append(subjects, s)
+		seen := make(map[string]bool, len(bySubject))
+		for _, r := range m { // m is in event-ID order
+			if s := f.Subject[r]; !seen[s] {
+				seen[s] = true
+				subjects = append(subjects, s)
+			}
 		}
-		sort.Strings(subjects)
 		pool := make([]int, 0, len(m))
 		for _, s := range subjects {
 			g := bySubject[s]
