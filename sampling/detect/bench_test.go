@@ -136,9 +136,10 @@ func TestFinderTradeoff(t *testing.T) {
 	if v, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_POINT"), 64); err == nil {
 		minPoint = v
 	}
-	if v := strings.Fields(os.Getenv("QUORATE_DIAG_NMS")); len(v) == 2 {
+	if v := strings.Fields(os.Getenv("QUORATE_DIAG_NMS")); len(v) == 3 {
 		complexBeforeS, _ = strconv.ParseFloat(v[0], 64)
 		complexAfterS, _ = strconv.ParseFloat(v[1], 64)
+		complexFrac, _ = strconv.ParseFloat(v[2], 64)
 	}
 	for _, thr := range thrs {
 		found, n, cands, minutes := 0, 0, 0, 0.0
