@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"testing"
 	"time"
@@ -110,7 +111,9 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 	var isIED []bool
 	var counts []int32
 	nIED, found, nEv, extra, extraIED, cands := 0, 0, 0, 0, 0, 0
-	perKind := map[string][2]int{} // matched, total
+	perKind := map[string][3]int{} // matched, total, extra rows nearest it
+	kindFeat := map[string]*[6][]float64{}
+	kindCount := map[string][]float64{}
 	for k, r := range recs {
 		rows, err := candidate.Read(OutputPath(out, 0, r.RecordingID))
 		if err != nil {
@@ -130,6 +133,9 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 		}
 		for i, e := range ev {
 			nEv++
+			if kindFeat[e.Kind] == nil {
+				kindFeat[e.Kind] = &[6][]float64{}
+			}
 			pk := perKind[e.Kind]
 			pk[1]++
 			if e.IsIED {
@@ -145,6 +151,10 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 				found++
 			}
 			f := rows[m[i]].Features()
+			for j := range 6 {
+				kindFeat[e.Kind][j] = append(kindFeat[e.Kind][j], f[j])
+			}
+			kindCount[e.Kind] = append(kindCount[e.Kind], float64(rows[m[i]].AutoCount))
 			for j := range 6 {
 				if !math.IsNaN(f[j]) && !e.Unclear[j] {
 					feats[j] = append(feats[j], f[j])
@@ -162,6 +172,9 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 			}
 			if j, ok := nearestEvent(ev, row.OnsetS, 0.5); ok {
 				extra++
+				pk := perKind[ev[j].Kind]
+				pk[2]++
+				perKind[ev[j].Kind] = pk
 				if ev[j].IsIED {
 					extraIED++
 				}
@@ -198,7 +211,17 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 	}
 	sort.Strings(kinds)
 	for _, k := range kinds {
-		t.Logf("  %-20s found %d/%d", k, perKind[k][0], perKind[k][1])
+		med := func(x []float64) float64 {
+			y := slices.DeleteFunc(slices.Clone(x), math.IsNaN)
+			if len(y) == 0 {
+				return math.NaN()
+			}
+			slices.Sort(y)
+			return y[len(y)/2]
+		}
+		kf := kindFeat[k]
+		t.Logf("  %-20s found %3d/%3d, extra rows beside it %3d; medians c1–c6 %.2f %.2f %.2f %.2f %.2f %.2f, auto_count %.0f", k, perKind[k][0], perKind[k][1], perKind[k][2],
+			med(kf[0]), med(kf[1]), med(kf[2]), med(kf[3]), med(kf[4]), med(kf[5]), med(kindCount[k]))
 	}
 	return f
 }
