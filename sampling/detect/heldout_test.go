@@ -105,8 +105,8 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 	if res.Processed != len(recs) || res.Failed != 0 {
 		t.Fatalf("processed %d failed %d: %v", res.Processed, res.Failed, res.Warnings)
 	}
-	var feats [6][]float64
-	var meets [6][]bool
+	var feats, iedFeats [6][]float64
+	var meets, iedMeets [6][]bool
 	var scores []float64
 	var isIED []bool
 	var counts []int32
@@ -114,6 +114,7 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 	perKind := map[string][3]int{} // matched, total, extra rows nearest it
 	kindFeat := map[string]*[6][]float64{}
 	kindCount := map[string][]float64{}
+	byOrient := map[string][2]int{} // IEDs found, total, by source orientation
 	for k, r := range recs {
 		rows, err := candidate.Read(OutputPath(out, 0, r.RecordingID))
 		if err != nil {
@@ -140,6 +141,12 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 			pk[1]++
 			if e.IsIED {
 				nIED++
+				o := byOrient[e.Orientation]
+				o[1]++
+				if m[i] >= 0 {
+					o[0]++
+				}
+				byOrient[e.Orientation] = o
 			}
 			if m[i] < 0 {
 				perKind[e.Kind] = pk
@@ -159,6 +166,10 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 				if !math.IsNaN(f[j]) && !e.Unclear[j] {
 					feats[j] = append(feats[j], f[j])
 					meets[j] = append(meets[j], e.Meets[j])
+					if e.IsIED {
+						iedFeats[j] = append(iedFeats[j], f[j])
+						iedMeets[j] = append(iedMeets[j], e.Meets[j])
+					}
 				}
 			}
 		}
@@ -183,10 +194,12 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 	}
 	f := figures{recall: float64(found) / float64(nIED), scoreAUC: auc(scores, isIED)}
 	t.Logf("%d recordings, %.0f min; %d events (%d IEDs); %.1f candidates per minute", len(recs), minutes, nEv, nIED, float64(cands)/minutes)
-	t.Logf("recall (peak within 20 ms) %d/%d = %.3f", found, nIED, f.recall)
+	t.Logf("recall (peak within 20 ms) %d/%d = %.3f; radial %d/%d, tangential %d/%d, oblique %d/%d", found, nIED, f.recall,
+		byOrient["radial"][0], byOrient["radial"][1], byOrient["tangential"][0], byOrient["tangential"][1], byOrient["oblique"][0], byOrient["oblique"][1])
 	t.Logf("extra candidates within 500 ms of an event, matching none: %d = %.1f %% of %d events (%d beside IEDs)", extra, 100*float64(extra)/float64(nEv), nEv, extraIED)
 	for j := range 6 {
-		t.Logf("c%d %s AUC %.3f (n = %d, %d built to meet)", j+1, candidate.FeatureNames[j], auc(feats[j], meets[j]), len(feats[j]), countTrue(meets[j]))
+		t.Logf("c%d %s AUC %.3f (n = %d, %d built to meet); among IEDs alone %.3f (n = %d, %d built to meet)", j+1, candidate.FeatureNames[j],
+			auc(feats[j], meets[j]), len(feats[j]), countTrue(meets[j]), auc(iedFeats[j], iedMeets[j]), len(iedFeats[j]), countTrue(iedMeets[j]))
 	}
 	t.Logf("score AUC, IED rows vs every other row: %.3f (%d IED rows of %d)", f.scoreAUC, countTrue(isIED), len(isIED))
 	for k := int32(3); k <= 6; k++ {
