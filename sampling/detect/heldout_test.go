@@ -68,8 +68,16 @@ func TestFirstGeneratorFigures(t *testing.T) {
 		t.Skip("set QUORATE_FIRST_FIGURES=1")
 	}
 	dir := t.TempDir()
+	recs, truth, _ := firstGeneratorArchive(t, dir)
+	measureArchive(t, dir, recs, truth, 10*float64(len(testSeeds)))
+}
+
+// firstGeneratorArchive writes the first generator's acceptance recordings
+// (testSeeds, 10 min each) to dir as EDF+ with their stage annotations.
+func firstGeneratorArchive(t *testing.T, dir string) ([]archive.Recording, [][]synth.Event, [][]synth.StateSpan) {
 	var recs []archive.Recording
 	var truth [][]synth.Event
+	var states [][]synth.StateSpan
 	for _, seed := range testSeeds {
 		g := generated(t, seed, 10)
 		in := inputOf(g)
@@ -77,8 +85,9 @@ func TestFirstGeneratorFigures(t *testing.T) {
 		writeEDF(t, dir, id+".edf", in.Labels, in.Src.(memSource), int(g.Rate), nil, stageAnnotations(g)...)
 		recs = append(recs, archive.Recording{RecordingID: id, Path: id + ".edf"})
 		truth = append(truth, g.Truth)
+		states = append(states, g.States)
 	}
-	measureArchive(t, dir, recs, truth, 10*float64(len(testSeeds)))
+	return recs, truth, states
 }
 
 // figures are what measureArchive reports.

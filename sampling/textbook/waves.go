@@ -13,28 +13,25 @@ import (
 // the flank. The slope is steepest at the apex (a point, as a spike's or sharp
 // wave's apex is drawn, Kane et al. 2017 glossary) and zero at both bases.
 func peaked(t, rise, fall float64) float64 {
-	var u float64
-	switch {
-	case t < 0:
-		u = -t / rise
-	default:
-		u = t / fall
-	}
+	u := flank(t, rise, fall)
 	if u >= 1 {
 		return 0
 	}
 	return (1 - u) * (1 - u)
 }
 
+// flank is the distance of t from the apex as a share of its flank: rise
+// before the apex, fall after.
+func flank(t, rise, fall float64) float64 {
+	if t < 0 {
+		return -t / rise
+	}
+	return t / fall
+}
+
 // rounded is a blunt lobe: half-cosine flanks with zero slope at the apex.
 func rounded(t, rise, fall float64) float64 {
-	var u float64
-	switch {
-	case t < 0:
-		u = -t / rise
-	default:
-		u = t / fall
-	}
+	u := flank(t, rise, fall)
 	if u >= 1 {
 		return 0
 	}
