@@ -2,11 +2,9 @@ package detect
 
 import (
 	"context"
-	"fmt"
 	"math"
 	"testing"
 
-	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 	"github.com/quorate-eeg/quorate/sampling/synth"
 )
@@ -34,18 +32,7 @@ func TestGeneratedRecordings(t *testing.T) {
 		t.Skip("generates and scans an hour of EEG")
 	}
 	dir := t.TempDir()
-	var recs []archive.Recording
-	var truth [][]synth.Event
-	var states [][]synth.StateSpan
-	for _, seed := range testSeeds {
-		g := generated(t, seed, 10)
-		in := inputOf(g)
-		id := fmt.Sprintf("rec-%d", seed)
-		writeEDF(t, dir, id+".edf", in.Labels, in.Src.(memSource), int(g.Rate), nil, stageAnnotations(g)...)
-		recs = append(recs, archive.Recording{RecordingID: id, Path: id + ".edf"})
-		truth = append(truth, g.Truth)
-		states = append(states, g.States)
-	}
+	recs, truth, states := firstGeneratorArchive(t, dir)
 	out := t.TempDir()
 	res, err := Run(context.Background(), Options{Recordings: recs, Roots: []string{dir}, OutDir: out, Workers: 2})
 	if err != nil {
