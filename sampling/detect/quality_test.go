@@ -76,7 +76,7 @@ func (a *assessor) add(rows []candidate.Row, truth []synth.Event) {
 	near := make([]int, len(truth))
 	for i, r := range rows {
 		a.q.rows++
-		if k := nearestEvent(truth, r.OnsetS); k >= 0 && math.Abs(r.OnsetS-truth[k].Onset) <= 0.5 {
+		if k := nearestTruth(truth, r.OnsetS); k >= 0 && math.Abs(r.OnsetS-truth[k].Onset) <= 0.5 {
 			near[k]++
 			if near[k] > 1 {
 				a.q.duplicates++
@@ -90,7 +90,7 @@ func (a *assessor) add(rows []candidate.Row, truth []synth.Event) {
 		if owner[i] >= 0 {
 			continue
 		}
-		best := nearestEvent(truth, r.OnsetS)
+		best := nearestTruth(truth, r.OnsetS)
 		if best >= 0 && math.Abs(r.OnsetS-truth[best].Onset) <= 0.5 {
 			bd := math.Abs(r.OnsetS - truth[best].Onset)
 			if os.Getenv("QUORATE_DIAG_EXTRAS") != "" {
@@ -108,9 +108,9 @@ func (a *assessor) add(rows []candidate.Row, truth []synth.Event) {
 	}
 }
 
-// nearestEvent is the index of the generated event whose onset is nearest
+// nearestTruth is the index of the generated event whose onset is nearest
 // t, or −1.
-func nearestEvent(truth []synth.Event, t float64) int {
+func nearestTruth(truth []synth.Event, t float64) int {
 	best, bd := -1, math.Inf(1)
 	for k, ev := range truth {
 		if d := math.Abs(t - ev.Onset); d < bd {
