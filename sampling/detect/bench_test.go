@@ -151,25 +151,7 @@ func TestFinderTradeoff(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			e := newEngine(s, &in)
-			if err := e.setRate(in.Rate); err != nil {
-				t.Fatal(err)
-			}
-			var onsets []float64
-			var cls []cluster
-			W := int64(math.Round(s.windowS * in.Rate))
-			C := int64(math.Ceil(max(contextNeed, s.backS/2+0.5) * in.Rate))
-			for ws := int64(0); ws < in.Len; ws += W {
-				we := min(ws+W, in.Len)
-				w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
-				if err != nil || !ok {
-					t.Fatal(err, ok)
-				}
-				for _, c := range e.find(w, ws, we) {
-					onsets = append(onsets, float64(w.base+int64(c.best.ph.peak))/in.Rate)
-					cls = append(cls, c)
-				}
-			}
+			cls, onsets := findAll(t, s, &in)
 			cands += len(onsets)
 			if os.Getenv("QUORATE_DIAG_BG") != "" {
 				for k, o := range onsets {
@@ -202,6 +184,30 @@ func TestFinderTradeoff(t *testing.T) {
 			t.Logf("missed: %s", strings.Join(missed, "; "))
 		}
 	}
+}
+
+// findAll runs the finder alone over the whole of in, window by window as
+// the engine does, and returns its events with their onsets (s).
+func findAll(t testing.TB, s *settings, in *Input) (cls []cluster, onsets []float64) {
+	t.Helper()
+	e := newEngine(s, in)
+	if err := e.setRate(in.Rate); err != nil {
+		t.Fatal(err)
+	}
+	W := int64(math.Round(s.windowS * in.Rate))
+	C := int64(math.Ceil(max(contextNeed, s.backS/2+0.5) * in.Rate))
+	for ws := int64(0); ws < in.Len; ws += W {
+		we := min(ws+W, in.Len)
+		w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
+		if err != nil || !ok {
+			t.Fatal(err, ok)
+		}
+		for _, c := range e.find(w, ws, we) {
+			onsets = append(onsets, float64(w.base+int64(c.best.ph.peak))/in.Rate)
+			cls = append(cls, c)
+		}
+	}
+	return cls, onsets
 }
 
 // TestFinderAt is a diagnostic, run only with QUORATE_DIAG_AT="seed onset":

@@ -258,20 +258,7 @@ func TestComplexDump(t *testing.T) {
 		g := generated(t, seed, 10)
 		in := inputOf(g)
 		s, _ := (&Options{}).settings()
-		e := newEngine(s, &in)
-		e.setRate(in.Rate)
-		var cls []cluster
-		var on []float64
-		W := int64(math.Round(s.windowS * in.Rate))
-		C := int64(math.Ceil(max(contextNeed, s.backS/2+0.5) * in.Rate))
-		for ws := int64(0); ws < in.Len; ws += W {
-			we := min(ws+W, in.Len)
-			w, _, _ := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
-			for _, c := range e.find(w, ws, we) {
-				cls = append(cls, c)
-				on = append(on, float64(w.base+int64(c.best.ph.peak))/in.Rate)
-			}
-		}
+		cls, on := findAll(t, s, &in)
 		for _, ev := range g.Truth {
 			line := fmt.Sprintf("%d %s %.2f %s snr %.1f:", seed, ev.Kind, ev.Onset, ev.PeakElectrode, ev.SNR)
 			for k, o := range on {
