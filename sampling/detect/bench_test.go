@@ -186,9 +186,9 @@ func TestFinderTradeoff(t *testing.T) {
 	}
 }
 
-// findAll runs the finder alone over the whole of in, window by window as
-// the engine does, and returns its events with their onsets (s).
-func findAll(t testing.TB, s *settings, in *Input) (cls []cluster, onsets []float64) {
+// eachEvent runs the finder over the whole of in, window by window as the
+// engine does, and calls f with each event and the window it was found in.
+func eachEvent(t testing.TB, s *settings, in *Input, f func(e *engine, w window, c cluster)) {
 	t.Helper()
 	e := newEngine(s, in)
 	if err := e.setRate(in.Rate); err != nil {
@@ -203,10 +203,19 @@ func findAll(t testing.TB, s *settings, in *Input) (cls []cluster, onsets []floa
 			t.Fatal(err, ok)
 		}
 		for _, c := range e.find(w, ws, we) {
-			onsets = append(onsets, float64(w.base+int64(c.best.ph.peak))/in.Rate)
-			cls = append(cls, c)
+			f(e, w, c)
 		}
 	}
+}
+
+// findAll runs the finder alone over the whole of in and returns its
+// events with their onsets (s).
+func findAll(t testing.TB, s *settings, in *Input) (cls []cluster, onsets []float64) {
+	t.Helper()
+	eachEvent(t, s, in, func(e *engine, w window, c cluster) {
+		onsets = append(onsets, float64(w.base+int64(c.best.ph.peak))/in.Rate)
+		cls = append(cls, c)
+	})
 	return cls, onsets
 }
 
