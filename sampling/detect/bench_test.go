@@ -251,7 +251,7 @@ func TestFinderAt(t *testing.T) {
 			det, pass := examine(x, d, i, sign, in.Rate, s.thr, sc, e.bank.z(i, sign, bstart, block))
 			var zs []string
 			for k := range e.bank.hats {
-				zs = append(zs, fmt.Sprintf("%.1f", sign*float64(e.bank.r[k][i])/e.bank.scale[k][min(max(i-bstart, 0)/block, len(e.bank.scale[k])-1)]))
+				zs = append(zs, fmt.Sprintf("%.1f", sign*float64(e.bank.hats[k].at(e.bank.cum, i))/e.bank.scale[k][min(max(i-bstart, 0)/block, len(e.bank.scale[k])-1)]))
 			}
 			t.Logf("%-4s %+d sign %+.0f z %.1f %v amp %.1f point %.2f dur %d pass %v", in.Labels[d], i-ci, sign, det.z, zs, det.amp, det.point, det.ph.right-det.ph.left, pass)
 		}
