@@ -26,6 +26,7 @@ import (
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 	"github.com/quorate-eeg/quorate/sampling/draw"
 	"github.com/quorate-eeg/quorate/sampling/synth"
+	"github.com/quorate-eeg/quorate/sampling/textbook"
 	"github.com/quorate-eeg/quorate/tuning"
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
 )
@@ -37,6 +38,7 @@ type demoFlags struct {
 	minutes    float64
 	n          int
 	seed       uint64
+	generator  string
 }
 
 // demoMarker marks a folder made by the demo, which a later demo may replace.
@@ -66,12 +68,16 @@ the report is. Every patient, rater and centre in it is invented.`,
 	fl.Float64Var(&f.minutes, "minutes", 10, "length of each recording, minutes")
 	fl.IntVar(&f.n, "n", 200, "events drawn for the panel")
 	fl.Uint64Var(&f.seed, "seed", 1, "seed of everything the demo makes")
+	fl.StringVar(&f.generator, "generator", "first", "which synthetic generator writes the archive: first, second (independent waveform, background and head models) or both (half each)")
 	return cmd
 }
 
 func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	if f.recordings < 2 || f.raters < 2 || f.minutes <= 0 || f.n < 10 {
 		return usageError{errors.New("demo needs --recordings ≥ 2, --raters ≥ 2, --minutes > 0 and --n ≥ 10")}
+	}
+	if f.generator != "first" && f.generator != "second" && f.generator != "both" {
+		return usageError{fmt.Errorf("--generator %q: want first, second or both", f.generator)}
 	}
 	if err := prepareDemoDir(f.out); err != nil {
 		return err
@@ -83,16 +89,9 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 
 	step("writing a fictional archive")
 	archDir, truthDir := filepath.Join(f.out, "archive"), filepath.Join(f.out, "truth")
-	subjects := synth.Archive(synth.ArchiveConfig{Seed: f.seed, Subjects: f.recordings, Recordings: 1,
-		Duration: f.minutes * 60, Forward: synth.HeadForward()})
-	written, err := synth.WriteArchive(archDir, truthDir, subjects)
+	truthByPath, err := demoArchive(f, archDir, truthDir)
 	if err != nil {
 		return err
-	}
-	truthByPath := map[string][]synth.Event{}
-	for _, w := range written {
-		rel, _ := filepath.Rel(archDir, w.Path)
-		truthByPath[filepath.ToSlash(rel)] = w.Truth
 	}
 
 	step("creating the study")
@@ -335,4 +334,48 @@ func (p *indent) Write(b []byte) (int, error) {
 		p.at = c == '\n'
 	}
 	return len(b), nil
+}
+
+// demoArchive writes the fictional archive with the generator(s) --generator
+// names — with both, the second generator's recordings go under "second/" —
+// and returns each recording's truth by its path relative to archDir.
+func demoArchive(f *demoFlags, archDir, truthDir string) (map[string][]synth.Event, error) {
+	nFirst := f.recordings
+	switch f.generator {
+	case "second":
+		nFirst = 0
+	case "both":
+		nFirst = (f.recordings + 1) / 2
+	}
+	truth := map[string][]synth.Event{}
+	add := func(path string, evs []synth.Event) {
+		rel, _ := filepath.Rel(archDir, path)
+		truth[filepath.ToSlash(rel)] = evs
+	}
+	if nFirst > 0 {
+		subjects := synth.Archive(synth.ArchiveConfig{Seed: f.seed, Subjects: nFirst, Recordings: 1,
+			Duration: f.minutes * 60, Forward: synth.HeadForward()})
+		written, err := synth.WriteArchive(archDir, truthDir, subjects)
+		if err != nil {
+			return nil, err
+		}
+		for _, w := range written {
+			add(w.Path, w.Truth)
+		}
+	}
+	if n := f.recordings - nFirst; n > 0 {
+		a, t := archDir, truthDir
+		if nFirst > 0 {
+			a, t = filepath.Join(archDir, "second"), filepath.Join(truthDir, "second")
+		}
+		subjects := textbook.Archive(textbook.ArchiveConfig{Seed: f.seed, Subjects: n, Duration: f.minutes * 60})
+		written, err := textbook.WriteArchive(a, t, subjects)
+		if err != nil {
+			return nil, err
+		}
+		for _, w := range written {
+			add(w.Path, w.Truth)
+		}
+	}
+	return truth, nil
 }

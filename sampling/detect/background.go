@@ -89,11 +89,13 @@ func median32(b []float32) float64 {
 }
 
 // selectK reorders b so that b[k] is the k-th smallest, smaller-or-equal
-// elements before it, and returns it (Hoare's selection with a
-// median-of-three pivot).
+// elements before it, and returns it (Hoare's selection, 1961, with a
+// median-of-three pivot). The partition is Lomuto's with an unconditional
+// swap, so the comparison sets a counter instead of taking a branch the
+// processor cannot predict on noise; short ranges finish by insertion.
 func selectK(b []float32, k int) float32 {
 	lo, hi := 0, len(b)-1
-	for lo < hi {
+	for hi-lo > 12 {
 		mid := lo + (hi-lo)/2
 		if b[mid] < b[lo] {
 			b[mid], b[lo] = b[lo], b[mid]
@@ -101,32 +103,37 @@ func selectK(b []float32, k int) float32 {
 		if b[hi] < b[lo] {
 			b[hi], b[lo] = b[lo], b[hi]
 		}
-		if b[hi] < b[mid] {
+		if b[mid] < b[hi] {
 			b[hi], b[mid] = b[mid], b[hi]
 		}
-		p := b[mid]
-		i, j := lo, hi
-		for i <= j {
-			for b[i] < p {
+		// b[lo] ≤ b[hi] ≤ b[mid]: the median of three is the pivot, at hi
+		p := b[hi]
+		i := lo
+		for j := lo; j < hi; j++ {
+			v := b[j]
+			b[j] = b[i]
+			b[i] = v
+			if v < p {
 				i++
-			}
-			for b[j] > p {
-				j--
-			}
-			if i <= j {
-				b[i], b[j] = b[j], b[i]
-				i++
-				j--
 			}
 		}
+		b[i], b[hi] = b[hi], b[i]
 		switch {
-		case k <= j:
-			hi = j
-		case k >= i:
-			lo = i
+		case k < i:
+			hi = i - 1
+		case k > i:
+			lo = i + 1
 		default:
 			return b[k]
 		}
+	}
+	for i := lo + 1; i <= hi; i++ {
+		v := b[i]
+		j := i
+		for ; j > lo && b[j-1] > v; j-- {
+			b[j] = b[j-1]
+		}
+		b[j] = v
 	}
 	return b[k]
 }

@@ -136,9 +136,10 @@ func TestFinderTradeoff(t *testing.T) {
 	if v, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_POINT"), 64); err == nil {
 		minPoint = v
 	}
-	if v := strings.Fields(os.Getenv("QUORATE_DIAG_NMS")); len(v) == 2 {
+	if v := strings.Fields(os.Getenv("QUORATE_DIAG_NMS")); len(v) == 3 {
 		complexBeforeS, _ = strconv.ParseFloat(v[0], 64)
 		complexAfterS, _ = strconv.ParseFloat(v[1], 64)
+		complexFrac, _ = strconv.ParseFloat(v[2], 64)
 	}
 	for _, thr := range thrs {
 		found, n, cands, minutes := 0, 0, 0, 0.0
@@ -150,25 +151,7 @@ func TestFinderTradeoff(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			e := newEngine(s, &in)
-			if err := e.setRate(in.Rate); err != nil {
-				t.Fatal(err)
-			}
-			var onsets []float64
-			var cls []cluster
-			W := int64(math.Round(s.windowS * in.Rate))
-			C := int64(math.Ceil(max(contextNeed, s.backS/2+0.5) * in.Rate))
-			for ws := int64(0); ws < in.Len; ws += W {
-				we := min(ws+W, in.Len)
-				w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
-				if err != nil || !ok {
-					t.Fatal(err, ok)
-				}
-				for _, c := range e.find(w, ws, we) {
-					onsets = append(onsets, float64(w.base+int64(c.best.ph.peak))/in.Rate)
-					cls = append(cls, c)
-				}
-			}
+			cls, onsets := findAll(t, s, &in)
 			cands += len(onsets)
 			if os.Getenv("QUORATE_DIAG_BG") != "" {
 				for k, o := range onsets {
@@ -203,6 +186,39 @@ func TestFinderTradeoff(t *testing.T) {
 	}
 }
 
+// eachEvent runs the finder over the whole of in, window by window as the
+// engine does, and calls f with each event and the window it was found in.
+func eachEvent(t testing.TB, s *settings, in *Input, f func(e *engine, w window, c cluster)) {
+	t.Helper()
+	e := newEngine(s, in)
+	if err := e.setRate(in.Rate); err != nil {
+		t.Fatal(err)
+	}
+	W := int64(math.Round(s.windowS * in.Rate))
+	C := int64(math.Ceil(max(contextNeed, s.backS/2+0.5) * in.Rate))
+	for ws := int64(0); ws < in.Len; ws += W {
+		we := min(ws+W, in.Len)
+		w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
+		if err != nil || !ok {
+			t.Fatal(err, ok)
+		}
+		for _, c := range e.find(w, ws, we) {
+			f(e, w, c)
+		}
+	}
+}
+
+// findAll runs the finder alone over the whole of in and returns its
+// events with their onsets (s).
+func findAll(t testing.TB, s *settings, in *Input) (cls []cluster, onsets []float64) {
+	t.Helper()
+	eachEvent(t, s, in, func(e *engine, w window, c cluster) {
+		onsets = append(onsets, float64(w.base+int64(c.best.ph.peak))/in.Rate)
+		cls = append(cls, c)
+	})
+	return cls, onsets
+}
+
 // TestFinderAt is a diagnostic, run only with QUORATE_DIAG_AT="seed onset":
 // every extremum within ±30 ms of the onset on every derivation, with the
 // finder's statistics.
@@ -235,7 +251,7 @@ func TestFinderAt(t *testing.T) {
 			det, pass := examine(x, d, i, sign, in.Rate, s.thr, sc, e.bank.z(i, sign, bstart, block))
 			var zs []string
 			for k := range e.bank.hats {
-				zs = append(zs, fmt.Sprintf("%.1f", sign*float64(e.bank.r[k][i])/e.bank.scale[k][min(max(i-bstart, 0)/block, len(e.bank.scale[k])-1)]))
+				zs = append(zs, fmt.Sprintf("%.1f", sign*float64(e.bank.hats[k].at(e.bank.cum, i))/e.bank.scale[k][min(max(i-bstart, 0)/block, len(e.bank.scale[k])-1)]))
 			}
 			t.Logf("%-4s %+d sign %+.0f z %.1f %v amp %.1f point %.2f dur %d pass %v", in.Labels[d], i-ci, sign, det.z, zs, det.amp, det.point, det.ph.right-det.ph.left, pass)
 		}

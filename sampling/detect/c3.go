@@ -23,16 +23,11 @@ var asymLevels = [...]float64{0.5, 0.6, 0.7, 0.8}
 // waveDuration). For a triangle, or the squared ramps ((t+R)/R)²,
 // ((F−t)/F)² of sampling/synth, rising from and falling to the baseline,
 // every level's ratio, and so c3, equals F/R; an overshoot past the
-// baseline after the fall does not change it (TestAsymmetryOvershoot). The
-// upper part of a wave is where it dominates the background; a spike's
-// upper flank spans one to four samples at 256 Hz, and averaging the log
-// ratio over four levels averages the background's and the sampling grid's
-// error over more crossings than one level does. The levels are shares of
-// the height above the baseline rather than of each flank's height to its
-// base: where the walk to a base stops on a background wave, a flank's
-// height is partly that wave's, the baseline is not. Also returns the two
-// base-to-base half-wave durations (ms). NaN when the baseline is not
-// defined (too near the trace's start) or the peak is not above it.
+// baseline after the fall does not change it (TestAsymmetryOvershoot).
+// FEATURES.md (c3) says why four levels, and why shares of the height
+// above the baseline. Also returns the two base-to-base half-wave
+// durations (ms). NaN when the baseline is not defined (too near the
+// trace's start) or the peak is not above it.
 func asymmetry(t *trace, ph phase, sc *scratch) (ratio, riseMS, fallMS float64) {
 	riseMS = float64(ph.peak-ph.left) / t.fs * 1000
 	fallMS = float64(ph.right-ph.peak) / t.fs * 1000

@@ -49,26 +49,13 @@ func TestFeatureDump(t *testing.T) {
 		diagStates = g.States
 		in := inputOf(g)
 		s, _ := (&Options{}).settings()
-		e := newEngine(s, &in)
-		if err := e.setRate(in.Rate); err != nil {
-			t.Fatal(err)
-		}
 		var rows []candidate.Row
 		var ex [][]float64
-		W := int64(math.Round(s.windowS * in.Rate))
-		C := int64(math.Ceil(max(contextNeed, s.backS/2+0.5) * in.Rate))
-		for ws := int64(0); ws < in.Len; ws += W {
-			we := min(ws+W, in.Len)
-			w, ok, err := e.condition(max(ws-C, 0), min(we+C, in.Len), ws, we)
-			if err != nil || !ok {
-				t.Fatal(err, ok)
-			}
-			for _, c := range e.find(w, ws, we) {
-				rows = append(rows, e.row(w, c))
-				tr, _, _ := e.traceOf(w, c)
-				ex = append(ex, diagExtra(e, w, c, tr))
-			}
-		}
+		eachEvent(t, s, &in, func(e *engine, w window, c cluster) {
+			rows = append(rows, e.row(w, c))
+			tr, _, _ := e.traceOf(w, c)
+			ex = append(ex, diagExtra(e, w, c, tr))
+		})
 		m := match(rows, g.Truth, 0.020)
 		for i, ev := range g.Truth {
 			if m[i] < 0 {

@@ -11,8 +11,10 @@
 // local extrema whose main-phase amplitude exceeds ThresholdMAD robust background
 // scales, whose main phase lasts 20–200 ms and whose apex is more pointed than a
 // rounded wave's, are detections; detections within ±MergeMS of each other on any
-// channels are one event, anchored on the sharpest large one. Rows are written as
-// each window is measured. Each event then gets the
+// channels are one event, anchored on the sharpest large one, and events within
+// 500 ms of a stronger one are phases of its discharge and reported once, at the
+// discharge's main phase (find.go, complexes). Rows are written as each window is
+// measured. Each event then gets the
 // six criterion features (see FEATURES.md, one file c1.go … c6.go per criterion;
 // c3 reads the event's virtual channel, virtual.go), the yes/no of each at its
 // cutoff, their count and a ranking score. A recording's sleep-stage annotations

@@ -334,7 +334,7 @@ func (e *engine) find(w window, ws, we int64) []cluster {
 	block, bstart := e.scales(w)
 	tol := int(math.Round(e.s.mergeS * e.rate))
 	before, after := int(math.Round(complexBeforeS*e.rate)), int(math.Round(complexAfterS*e.rate))
-	reach := tol + max(before, after)
+	reach := tol + before + after
 	from := max(int(ws-w.base)-reach, w.lo)
 	to := min(int(we-w.base)+reach, w.hi)
 	e.dets = e.dets[:0]
@@ -348,7 +348,7 @@ func (e *engine) find(w window, ws, we int64) []cluster {
 		zAt := func(i int, sign float64) float64 { return e.bank.z(i, sign, bstart, block) }
 		e.dets = findChannel(e.dets, d, x, from, to, e.rate, e.s.thr, at, zAt)
 	}
-	out := suppress(merge(e.dets, tol), before, after)
+	out := complexes(merge(e.dets, tol), before, after, complexFrac, e.rate)
 	k := 0
 	for _, c := range out {
 		if p := int64(c.best.ph.peak) + w.base; p >= ws && p < we {

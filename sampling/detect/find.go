@@ -131,49 +131,98 @@ func merge(dets []detection, tol int) []cluster {
 	return out
 }
 
-// Reach of an event's complex around its anchoring peak: an IED's main
-// phase may be followed by an opposite-polarity overshoot and an after-going
-// slow wave lasting up to several hundred ms (Kane et al. 2017, "spike-and-
-// slow-wave complex"), each of which can pass the detection tests on its
-// own. A weaker event within complexAfterS after a stronger one, or within
-// complexBeforeS before it, is taken to be part of the stronger one's
-// complex and is not reported separately, so the panel does not rate one
-// discharge twice (common practice: non-maximum suppression).
+// One discharge, one event. An IED's main phase may be followed by an
+// opposite-polarity overshoot and an after-going slow wave, the whole
+// complex lasting up to about 500 ms (spike or sharp wave ≤ 200 ms, Kane et
+// al. 2017, and its slow wave), and each phase, on the peak channel or a
+// neighbour, can pass the detection tests on its own. So, strongest event
+// first (by rank), every weaker event within complexBeforeS before or
+// complexAfterS after it joins its complex and is not reported on its own
+// (non-maximum suppression with a refractory period; common practice). The
+// complex is reported at its earliest event that shares a derivation with
+// the strongest, lies at most complexLeadS before it and has at least
+// complexFrac of its rank: a sharp wave's overshoot can outrank the wave
+// (its apex is narrower), and the discharge begins with its main phase.
+// An earlier event of the same field with between complexKeepFrac and
+// complexFrac of the strongest's rank is reported as well: whether it is
+// the main phase or a background wave before it is left to the panel.
+// FEATURES.md (finder) gives the figures these were chosen on.
 var (
-	complexBeforeS = 0.0
-	complexAfterS  = 0.400
+	complexBeforeS  = 0.500
+	complexAfterS   = 0.500
+	complexLeadS    = 0.200
+	complexFrac     = 0.6
+	complexKeepFrac = 0.4
 )
 
-// suppress drops, strongest first (by rank), each event whose anchoring
-// peak lies within before samples before, or after samples after, the peak
-// of a stronger event kept. out is in onset order, as cl.
-func suppress(cl []cluster, before, after int) []cluster {
+// complexes groups cl (onset order) into discharges as described above and
+// returns the reported events, in onset order. before and after are the
+// complex's reach around its strongest event, in samples; frac the share
+// of its rank an earlier event needs to stand for it; fs the rate.
+func complexes(cl []cluster, before, after int, frac, fs float64) []cluster {
 	order := make([]int, len(cl))
 	for i := range order {
 		order[i] = i
 	}
 	sort.SliceStable(order, func(a, b int) bool { return cl[order[a]].best.rank() > cl[order[b]].best.rank() })
-	keep := make([]bool, len(cl))
-	var kept []int // peaks of kept events
-	for _, i := range order {
-		p := cl[i].best.ph.peak
-		ok := true
-		for _, q := range kept {
-			if p >= q-before && p <= q+after {
-				ok = false
-				break
+	taken := make([]bool, len(cl))
+	var out []cluster
+	var mine []int // this complex's events
+	for _, s := range order {
+		if taken[s] {
+			continue
+		}
+		t := cl[s].best.ph.peak
+		lo := sort.Search(len(cl), func(i int) bool { return cl[i].best.ph.peak >= t-before })
+		top := frac * cl[s].best.rank()
+		lead := int(complexLeadS * fs)
+		rep := -1
+		mine = mine[:0]
+		for i := lo; i < len(cl) && cl[i].best.ph.peak <= t+after; i++ {
+			if taken[i] {
+				continue
+			}
+			taken[i] = true
+			mine = append(mine, i)
+			if rep < 0 && (i == s || eligible(cl[i], cl[s], top, lead)) {
+				rep = i
 			}
 		}
-		if ok {
-			keep[i] = true
-			kept = append(kept, p)
+		out = append(out, cl[rep])
+		if rep == s && complexKeepFrac < frac {
+			// an earlier phase too weak to stand for the complex but not
+			// clearly background is reported as well: which of the two is
+			// the discharge's main phase is then the panel's call
+			for _, i := range mine {
+				if i < s && eligible(cl[i], cl[s], complexKeepFrac*cl[s].best.rank(), lead) {
+					out = append(out, cl[i])
+					break
+				}
+			}
 		}
 	}
-	out := cl[:0]
-	for i, c := range cl {
-		if keep[i] {
-			out = append(out, c)
-		}
-	}
+	sort.SliceStable(out, func(a, b int) bool { return out[a].best.ph.peak < out[b].best.ph.peak })
 	return out
+}
+
+// eligible reports whether e, earlier than the strongest event s of its
+// complex, may stand for the complex: it shares a derivation with s, lies
+// at most lead samples before it and reaches a rank of top.
+func eligible(e, s cluster, top float64, lead int) bool {
+	return e.best.ph.peak >= s.best.ph.peak-lead && e.best.rank() >= top && shares(e.members, s.members)
+}
+
+// shares reports whether two ascending index lists have an element in common.
+func shares(a, b []int) bool {
+	for i, j := 0, 0; i < len(a) && j < len(b); {
+		switch {
+		case a[i] == b[j]:
+			return true
+		case a[i] < b[j]:
+			i++
+		default:
+			j++
+		}
+	}
+	return false
 }

@@ -27,24 +27,18 @@ func runningSum(cum []float64, x []float32) {
 	}
 }
 
-// respond sets r[i] to the hat's response at every i whose surround lies
-// inside the trace, and 0 elsewhere; cum is the trace's running sum
-// (runningSum), len(r)+1 long.
-func (k hat) respond(r []float32, cum []float64) {
+// at is the hat's response at i, computed from the running sum cum of a
+// trace len(cum)−1 long (runningSum), and 0 where the surround leaves the
+// trace. The finder needs the response only on the blocks' sampling grid
+// and at extrema, so it is read where needed rather than stored.
+func (k hat) at(cum []float64, i int) float32 {
 	h, o := k.h, k.outer()
-	ci, co := 1/float64(2*h+1), 1/float64(2*o+1)
-	n := len(r)
-	for i := range r[:min(o, n)] {
-		r[i] = 0
+	if i < o || i >= len(cum)-1-o {
+		return 0
 	}
-	for i := o; i < n-o; i++ {
-		c := (cum[i+h+1] - cum[i-h]) * ci
-		s := (cum[i+o+1] - cum[i-o]) * co
-		r[i] = float32(c - s)
-	}
-	for i := max(n-o, o); i < n; i++ {
-		r[i] = 0
-	}
+	c := (cum[i+h+1] - cum[i-h]) * (1 / float64(2*h+1))
+	s := (cum[i+o+1] - cum[i-o]) * (1 / float64(2*o+1))
+	return float32(c - s)
 }
 
 // hatsFor returns the hats for a sampling rate: centre boxes about 12, 25,
@@ -64,18 +58,18 @@ func hatsFor(fs float64) []hat {
 	return out
 }
 
-// bank is one derivation's hat responses over a conditioned window and the
-// robust background scale of each response per 1 s block.
+// bank is one derivation's running sum over a conditioned window, from which
+// every hat's response is read (hat.at), and the robust background scale of
+// each response per 1 s block.
 type bank struct {
 	hats  []hat
-	r     [][]float32 // response per hat
 	scale [][]float64 // background scale per hat and block
 	med   []float64
 	cum   []float64
 	tmp   []float32
 }
 
-// prepare computes the responses of every hat to x and, over the blocks of
+// prepare computes the running sum of x and, over the blocks of
 // length block from start to end, their background scales: madToSD times
 // the median over blocks b−h … b+h of each block's median |r|. The response
 // has zero mean under a stationary background, so its median absolute value
@@ -88,17 +82,10 @@ func (b *bank) prepare(x []float32, start, end, block, h int) {
 	}
 	b.cum = b.cum[:n+1]
 	runningSum(b.cum, x)
-	for len(b.r) < len(b.hats) {
-		b.r = append(b.r, nil)
+	for len(b.scale) < len(b.hats) {
 		b.scale = append(b.scale, nil)
 	}
 	for k, hk := range b.hats {
-		if cap(b.r[k]) < n {
-			b.r[k] = make([]float32, n)
-		}
-		r := b.r[k][:n]
-		b.r[k] = r
-		hk.respond(r, b.cum)
 		stride := max(2, hk.h/2)
 		b.med = b.med[:0]
 		for s := start; s < end; s += block {
@@ -109,7 +96,7 @@ func (b *bank) prepare(x []float32, start, end, block, h int) {
 			}
 			b.tmp = b.tmp[:0]
 			for i := s; i < e; i += stride {
-				b.tmp = append(b.tmp, float32(math.Abs(float64(r[i]))))
+				b.tmp = append(b.tmp, float32(math.Abs(float64(hk.at(b.cum, i)))))
 			}
 			b.med = append(b.med, median32(b.tmp))
 		}
@@ -126,7 +113,7 @@ func (b *bank) z(i int, sign float64, start, block int) float64 {
 		sc := b.scale[k]
 		s := sc[min(max(i-start, 0)/block, len(sc)-1)]
 		if s > 0 {
-			z = max(z, sign*float64(b.r[k][i])/s)
+			z = max(z, sign*float64(b.hats[k].at(b.cum, i))/s)
 		}
 	}
 	return z

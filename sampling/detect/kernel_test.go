@@ -30,7 +30,9 @@ func TestHatResponse(t *testing.T) {
 			cum := make([]float64, n+1)
 			runningSum(cum, x)
 			r := make([]float32, n)
-			k.respond(r, cum)
+			for i := range r {
+				r[i] = k.at(cum, i)
+			}
 			want := 0.0
 			if name == "quadratic" {
 				want = float64(h*(h+1)-o*(o+1)) / 3
@@ -82,27 +84,37 @@ func TestBankScale(t *testing.T) {
 	}
 }
 
-// TestSuppress checks the complex rule on three events: a weaker event
-// 300 ms after a stronger one is dropped, one 100 ms before it is kept
-// (complexBeforeS is 0), and an event 500 ms after is kept.
-func TestSuppress(t *testing.T) {
-	ev := func(p int, z float64) cluster {
-		return cluster{best: detection{ph: phase{peak: p}, z: z, point: 2}}
+// TestComplexes checks the one-discharge rule (FEATURES.md, finder; common
+// practice: a spike, its overshoot and its after-going slow wave, within
+// about 500 ms, are one discharge): an overshoot larger than its spike and
+// a slow wave 300 ms later join the spike's event, which is reported at the
+// spike; a transient 600 ms before on other derivations stays an event of
+// its own, as does one 600 ms after the discharge's strongest phase; a
+// small wave just before a transient (a quarter of its rank) does not
+// displace it, and one of half its rank is reported beside it.
+func TestComplexes(t *testing.T) {
+	ev := func(p int, z float64, deriv ...int) cluster {
+		return cluster{best: detection{deriv: deriv[0], ph: phase{peak: p}, z: z, point: 2}, members: deriv}
 	}
 	const fs = 1000
-	cl := []cluster{ev(900, 3), ev(1000, 8), ev(1300, 5), ev(1500, 4)}
-	got := suppress(cl, int(complexBeforeS*fs), int(complexAfterS*fs))
+	cl := []cluster{
+		ev(400, 3, 5),     // elsewhere, earlier
+		ev(1000, 8, 1, 2), // spike
+		ev(1080, 9, 2),    // its overshoot, larger
+		ev(1300, 5, 1),    // its slow wave
+		ev(1680, 4, 1),    // a new discharge
+		ev(3000, 2, 7),    // a small wave before
+		ev(3100, 8, 7, 8), // a transient
+		ev(5000, 4, 9),    // a wave of half the rank before
+		ev(5100, 8, 9),    // a transient
+	}
+	got := complexes(cl, int(complexBeforeS*fs), int(complexAfterS*fs), complexFrac, fs)
 	var peaks []int
 	for _, c := range got {
 		peaks = append(peaks, c.best.ph.peak)
 	}
-	want := []int{900, 1000, 1500}
-	if len(peaks) != len(want) {
+	want := []int{400, 1000, 1680, 3100, 5000, 5100}
+	if !slices.Equal(peaks, want) {
 		t.Fatalf("kept %v, want %v", peaks, want)
-	}
-	for i := range want {
-		if peaks[i] != want[i] {
-			t.Fatalf("kept %v, want %v", peaks, want)
-		}
 	}
 }

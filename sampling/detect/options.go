@@ -43,12 +43,12 @@ type Options struct {
 // convention exists, a documented first guess that the tuner replaces.
 var DefaultCutoffs = map[string]float64{
 	"c1_duration_ms":        200,  // Kane et al. (2017): spike < 70 ms, sharp wave 70–200 ms
-	"c1_sharpness":          0.63, // spikiness √(P·q) at pointedness 2 and an opposite phase of 20 % (c1_phases' floor); first guess
-	"c2_duration_log_ratio": 0.7,  // |ln| ≥ ln 2: half or twice the background half-period
-	"c3_asymmetry":          1.3,  // common practice
+	"c1_sharpness":          0.8,  // FEATURES.md (default cutoffs): chosen with the others for auto_count ≥ 4
+	"c2_duration_log_ratio": 0.8,  // |ln| ≥ 0.8: beyond ln 2, half or twice the background half-period, with a margin; FEATURES.md
+	"c3_asymmetry":          1.5,  // FEATURES.md (default cutoffs)
 	"c4_slow_wave_ratio":    1.0,  // background standard deviations; FEATURES.md (c4)
-	"c5_disruption":         0.3,  // −ln of the post-event activity ratio
-	"c6_dipole_gof":         0.8,  // common practice for equivalent dipole fits
+	"c5_disruption":         0.25, // −ln of the post-event activity ratio (22 % attenuation); FEATURES.md
+	"c6_dipole_gof":         0.9,  // FEATURES.md (default cutoffs)
 	"c6_field_extent":       2,    // channels at ≥ 50 % of the peak
 }
 
