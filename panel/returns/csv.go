@@ -143,16 +143,6 @@ func readCSV(data []byte, add func(int, string, string, string)) (h head, out []
 }
 
 func readHeader(rec []string, line int, add func(int, string, string, string)) map[string]int {
-	// A spreadsheet in a locale with a decimal comma saves "CSV" with semicolons: one
-	// problem that says so, rather than one per column.
-	if len(rec) == 1 && strings.ContainsAny(rec[0], ";\t") {
-		sep := "semicolons (;)"
-		if !strings.Contains(rec[0], ";") {
-			sep = "tabs"
-		}
-		add(line, "header", "columns separated by "+sep, "columns separated by commas: save the sheet as comma-separated CSV")
-		return nil
-	}
 	col := map[string]int{}
 	bad := false
 	for i, name := range rec {
