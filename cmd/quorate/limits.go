@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"github.com/quorate-eeg/quorate/panel/returns"
 	"io/fs"
 	"os"
 
@@ -30,8 +31,8 @@ func readAgreement(path string) (*consensus.Agreement, error) {
 
 // maxReturnBytes bounds a returned file: a packet's answers take kilobytes, and a file
 // of hundreds of megabytes is not a return (it would be stored for good, and read
-// whole).
-const maxReturnBytes = 32 << 20
+// whole). The bound is the parser's own.
+const maxReturnBytes = returns.MaxSize
 
 // checkSizes refuses files larger than limit bytes before any is read.
 func checkSizes(files []string, limit int64) error {
