@@ -17,7 +17,7 @@ import (
 // cutoff is the threshold maximising design-weighted Youden's J (Youden 1950,
 // Cancer 3:32–35) whatever the study's policy, because a criterion cutoff is
 // a building block of a rule, not an operating point: the policy is applied
-// to the rule (AutoRule). AUC is unweighted with the DeLong (1988) interval,
+// to the rule (AutoRule). AUC is unweighted with the DeLong (1988) interval, subjects as clusters (Obuchowski 1997),
 // which has no weighted form; WeightedAUC is the design-weighted area.
 type CriterionROC struct {
 	Criterion   int // 1…6
@@ -119,19 +119,19 @@ func criterionROC(s *evset, j int, level float64) (CriterionROC, criterionFit) {
 	}
 	var x []float64
 	var t []bool
-	for _, e := range s.src {
+	var subj []string
+	for i, e := range s.src {
 		if v := e.Features[j]; e.Majority[j] != -1 && !math.IsNaN(v) {
 			x = append(x, f.dir*v)
 			t = append(t, e.Majority[j] == 1)
+			subj = append(subj, s.subject[i])
 			r.N++
 			if e.Majority[j] == 1 {
 				r.Present++
 			}
 		}
 	}
-	auc, v := accuracy.DeLong(x, t)
-	lo, hi := accuracy.DeLongCI(auc, v, level)
-	r.AUC = Estimate{auc, lo, hi}
+	r.AUC = aucEstimate(x, t, subj, level)
 	r.WeightedAUC = countsAUC(f.weighed)
 	r.Direction = int(f.dir)
 	// The cutoff sits in the gap below the Youden threshold (gapCut), so it

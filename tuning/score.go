@@ -15,7 +15,7 @@ import (
 // FalsePerHour at a threshold is the design-weighted count of
 // reference-negative candidates at or above it divided by the recording
 // hours: the weights project the sampled false detections to the whole
-// archive. AUC is unweighted with the DeLong (1988) interval; WeightedAUC is
+// archive. AUC is unweighted with the DeLong (1988) interval, subjects as clusters (Obuchowski 1997); WeightedAUC is
 // the design-weighted trapezoidal area.
 type ScoreSweep struct {
 	N           int // events with a score
@@ -74,12 +74,11 @@ func scoreSweep(s *evset, policy accuracy.Policy, level float64) (ScoreSweep, in
 	}
 	x := make([]float64, len(idx))
 	t := make([]bool, len(idx))
+	subj := make([]string, len(idx))
 	for k, i := range idx {
-		x[k], t[k] = score(i), s.truth[i]
+		x[k], t[k], subj[k] = score(i), s.truth[i], s.subject[i]
 	}
-	auc, v := accuracy.DeLong(x, t)
-	lo, hi := accuracy.DeLongCI(auc, v, level)
-	sw.AUC = Estimate{auc, lo, hi}
+	sw.AUC = aucEstimate(x, t, subj, level)
 	ws := make([]accuracy.Confusion, len(sw.Curve))
 	for i, p := range sw.Curve {
 		ws[i] = p.Weighted
@@ -96,4 +95,18 @@ func scoreSweep(s *evset, policy accuracy.Policy, level float64) (ScoreSweep, in
 		sw.At = &m
 	}
 	return sw, missing
+}
+
+// aucEstimate is the empirical AUC with a DeLong-type interval that treats
+// subjects as clusters (Obuchowski 1997): events of one patient are not
+// independent, and the independent-events variance (DeLong et al. 1988)
+// understates the interval's width when they are not. With fewer than two
+// subjects no clustered variance exists and the DeLong variance is used.
+func aucEstimate(x []float64, t []bool, subject []string, level float64) Estimate {
+	auc, v := accuracy.DeLongClustered(x, t, subject)
+	if math.IsNaN(v) {
+		auc, v = accuracy.DeLong(x, t)
+	}
+	lo, hi := accuracy.DeLongCI(auc, v, level)
+	return Estimate{auc, lo, hi}
 }
