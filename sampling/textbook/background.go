@@ -28,7 +28,7 @@ func rhythms(alphaHz float64) []rhythm {
 		{6, 3, func(p [3]float64) float64 { return 0.3 + clamp01(p[2]) + clamp01(p[1]+0.3) }, byState(3, 11, 9), false},
 		// posterior dominant (alpha) rhythm: reactive to eye opening, gone in
 		// drowsiness and sleep (Kane et al. 2017, "alpha rhythm")
-		{alphaHz, 0.9, func(p [3]float64) float64 { return math.Pow(clamp01(-p[1]), 2) + 0.05 }, alphaRMS, true},
+		{alphaHz, 0.9, func(p [3]float64) float64 { return clamp01(-p[1] - 0.35) }, alphaRMS, true},
 		// low-voltage beta, frontocentral
 		{20, 8, func(p [3]float64) float64 { return 0.5 + clamp01(p[1]) }, byState(3, 4, 2), false},
 	}
@@ -50,13 +50,13 @@ func byState(awake, drowsy, n2 float64) func(span) float64 {
 func alphaRMS(s span) float64 {
 	switch {
 	case s.State == Drowsy:
-		return 3 // alpha drop-out of drowsiness
+		return 1.5 // alpha drop-out of drowsiness
 	case s.State == N2:
 		return 0
 	case s.EyesOpen:
-		return 5 // blocked by eye opening
+		return 2 // blocked by eye opening
 	}
-	return 20
+	return 9
 }
 
 func clamp01(x float64) float64 { return math.Max(0, math.Min(1, x)) }

@@ -90,16 +90,19 @@ func (m *maker) ied(t0 float64, s span) *built {
 		srcs = append(srcs, func(t float64) float64 { return sa * slowLobe(t-st, L) })
 		end = st + L
 	}
+	// The moment points into the cortex, so that over a radial source the
+	// discharge is surface negative, as most IEDs are (Kane et al. 2017,
+	// "spike"; from memory).
 	b.cerebral(v, m.rate, func(t float64) float64 {
 		y := 0.0
 		for _, f := range srcs {
 			y += f(t)
 		}
-		return amp * y
+		return -amp * y
 	})
 
 	ev := synth.Event{Kind: form, IsIED: true, Duration: d, Rise: d * rf, SlowWave: slowMs,
-		DipolePos: pos, DipoleMoment: mom, Orientation: orientation}
+		DipolePos: pos, DipoleMoment: [3]float64{-mom[0], -mom[1], -mom[2]}, Orientation: orientation}
 	ev.Meets[synth.C1Spiky] = true
 	ev.Meets[synth.C3Asymmetry] = !fail[synth.C3Asymmetry]
 	ev.Meets[synth.C4SlowWave] = !fail[synth.C4SlowWave]
