@@ -127,18 +127,23 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	for _, w := range warns {
 		g.log.Warn("packets", "warning", w)
 	}
+	// The page opens with study.yaml's montage and filters; raters may change them.
+	filters := packet.Filters{LowHz: c.Signal.Bandpass[0], HighHz: c.Signal.Bandpass[1], NotchHz: c.Signal.NotchHz}
 	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
-		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir)})
+		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir),
+		Montages: packet.FirstMontage(packet.DefaultMontages(items[0].Electrodes), c.Signal.Montage), Filters: &filters})
 	if err != nil {
 		return err
 	}
 	seed := f.seed
 	if err := s.Record(study.Entry{Version: Version, Command: "packets", Argv: g.argv, Seed: &seed,
 		Inputs: s.Hash(drawPath, indexPath), Outputs: s.Hash(s.Path(study.PacketsDir)),
-		Notes: map[string]any{"raters": raters, "items": len(items)}}); err != nil {
+		Notes: map[string]any{"raters": raters, "events": len(items), "items_per_packet": len(res.Manifest.Packets[0].Items)}}); err != nil {
 		return err
 	}
-	fmt.Fprintf(g.stdout, "Built %d packets of %d events:\n", len(res.Packets), len(items))
+	perPacket := len(res.Manifest.Packets[0].Items)
+	fmt.Fprintf(g.stdout, "Built %d packets, each of %d items: %d events, %d of them shown twice under another code.\n",
+		len(res.Packets), perPacket, len(items), perPacket-len(items))
 	for _, p := range res.Packets {
 		fmt.Fprintf(g.stdout, "  %-16s %s (%.1f MB) and %s\n", p.Rater, p.Page, float64(p.PageBytes)/1e6, p.Sheet)
 	}
