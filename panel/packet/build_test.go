@@ -76,9 +76,14 @@ func TestNoLeak(t *testing.T) {
 	if !strings.Contains(key[0].Source, LeakStrings[0]) || !strings.HasPrefix(key[0].EventID, "EVT-") {
 		t.Errorf("key row lacks provenance: %+v", key[0])
 	}
+	// The source column is one plain JSON object a spreadsheet or jq can read.
+	var src map[string]string
+	if err := json.Unmarshal([]byte(key[0].Source), &src); err != nil || src["subject"] != LeakStrings[0] || src["score"] != LeakStrings[6] {
+		t.Errorf("source %q: %v", key[0].Source, err)
+	}
 	// The page's data blob holds only the documented fields.
 	d := pageBlob(t, res.Packets[0].Page)
-	allowed := []string{"code", "rate", "n", "eventAt", "scale", "traces", "map"}
+	allowed := []string{"code", "rate", "n", "eventAt", "from", "to", "cond", "scale", "traces", "map"}
 	for _, it := range d["items"].([]any) {
 		for k := range it.(map[string]any) {
 			if !slices.Contains(allowed, k) {
