@@ -200,10 +200,11 @@ func TestReviewPageInBrowser(t *testing.T) {
 
 	// 20 items with the keyboard alone. Digits 1–6 set a criterion present
 	// (a second press absent, a third cannot judge); a marks the rest absent;
-	// e, n, x give the verdict; Shift+digit the confidence; j or Page Down
+	// e, n, x give the verdict; c then a digit the confidence; j or Page Down
 	// moves on. From item 16 on, auto-advance moves on after the verdict.
 	P, A, C := "present", "absent", "cannot-judge"
 	want := map[string][7]string{}
+	wantConf := map[string]any{}
 	for i := range 20 {
 		code := eval("document.getElementById('item-code').textContent").(string)
 		if code != entry.Items[i] {
@@ -212,16 +213,18 @@ func TestReviewPageInBrowser(t *testing.T) {
 		w := [7]string{A, A, A, A, A, A, "not-epileptiform"}
 		switch i % 4 {
 		case 0: // a typical discharge: four criteria present
-			keys("1", "2", "4", "6", "a", "e", "S-4")
+			keys("1", "2", "4", "6", "a", "c", "4", "e")
 			w = [7]string{P, P, A, P, A, P, "epileptiform"}
+			wantConf[entry.Items[i]] = 4.0
 		case 1: // nothing there
 			keys("a", "n")
 		case 2: // obscured: c5 cannot be judged, nor the whole
 			keys("5", "5", "5", "a", "x")
 			w = [7]string{A, A, A, A, C, A, C}
-		case 3: // changed mind: c3 present, then absent with a second press
-			keys("3", "3", "1", "a", "e", "S-2")
-			w = [7]string{P, A, A, A, A, A, "epileptiform"}
+		case 3: // changed mind: c3 present, then absent with a second press; c5 by Shift+5
+			keys("3", "3", "1", "S-5", "a", "c", "2", "e") // Shift+5 reads as 5 (AZERTY prints digits with Shift)
+			w = [7]string{P, A, A, A, P, A, "epileptiform"}
+			wantConf[entry.Items[i]] = 2.0
 		}
 		want[entry.Items[i]] = w
 		if i == 0 {
@@ -364,6 +367,9 @@ func TestReviewPageInBrowser(t *testing.T) {
 			if a[fmt.Sprintf("c%d", k+1)] != w[k] {
 				t.Errorf("%s c%d = %v, want %s", code, k+1, a[fmt.Sprintf("c%d", k+1)], w[k])
 			}
+		}
+		if a["confidence"] != wantConf[code] {
+			t.Errorf("%s confidence = %v, want %v", code, a["confidence"], wantConf[code])
 		}
 		if a["verdict"] != w[6] {
 			t.Errorf("%s verdict = %v, want %s", code, a["verdict"], w[6])

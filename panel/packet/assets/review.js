@@ -594,6 +594,7 @@
     m = { Comma: ",", Period: ".", Equal: "+", Minus: "-", NumpadAdd: "+", NumpadSubtract: "-", Slash: "?" }[c];
     return m || k;
   }
+  let confNext = false; // "c" was pressed: the next digit is the confidence
   function onKey(ev) {
     if (ev.ctrlKey || ev.metaKey || ev.altKey) return; // AltGr arrives as Ctrl+Alt: its characters are for text
     const t = ev.target, tag = t && t.tagName;
@@ -607,18 +608,23 @@
       return;
     }
     const inControl = tag === "INPUT" || tag === "SELECT";
+    // Digits are read by position (Digit1, Numpad1…), with or without Shift,
+    // so they work where the row prints other characters first (AZERTY).
     const m = /^(?:Digit|Numpad)([0-9])$/.exec(ev.code || "");
+    const conf = confNext;
+    confNext = false;
+    if (conf && !m) status("");
     if (m) {
       const q = +m[1];
-      if (ev.shiftKey && q >= 1 && q <= 5) { ans().confidence = q; changed(false); }
-      else if (q === 0) { ans().confidence = null; changed(false); }
-      else if (!ev.shiftKey && q >= 1 && q <= 6) setCrit(q);
+      if (conf && q <= 5) { ans().confidence = q || null; status(""); changed(false); }
+      else if (q >= 1 && q <= 6) setCrit(q);
       else return;
       ev.preventDefault();
       return;
     }
     switch (key) {
       case "a": restAbsent(); break;
+      case "c": confNext = true; status("Confidence: press 1 (low) to 5 (high), or 0 to clear."); break;
       case "e": setVerdict("epileptiform"); break;
       case "n": setVerdict("not-epileptiform"); break;
       case "x": setVerdict(CJ); break;
@@ -630,8 +636,8 @@
       case "u": nextOpen(); break;
       case "m": st.montage = (st.montage + 1) % D.montages.length; changed(true); break;
       case "M": st.montage = (st.montage + D.montages.length - 1) % D.montages.length; changed(true); break;
-      case "+": case "=": step(SENS, "sens", -1); break;
-      case "-": case "_": step(SENS, "sens", +1); break;
+      case "+": case "=": case "ArrowUp": if (inControl && key === "ArrowUp") return; step(SENS, "sens", -1); break;
+      case "-": case "_": case "ArrowDown": if (inControl && key === "ArrowDown") return; step(SENS, "sens", +1); break;
       case ".": case ">": step(TB, "tb", +1); break;
       case ",": case "<": step(TB, "tb", -1); break;
       case "f": toggleFilters(); break;
