@@ -331,6 +331,12 @@ func TestReviewPageInBrowser(t *testing.T) {
 	if s := eval("document.getElementById('status').textContent").(string); s != "" {
 		t.Errorf("save message lingers on the next item: %q", s)
 	}
+	// At 15 mm/s the time and voltage bars keep their labels apart (see
+	// review-1920x1080.png).
+	keys(",", ",", ",", ",", ",", ",")
+	if tb := eval("window.quorate.state().tb"); tb != 15.0 {
+		t.Errorf("time base %v after six presses of ',', want 15", tb)
+	}
 	layout(1920, 1080)
 
 	path := filepath.Join(downloads, entry.Packet+".json")

@@ -205,7 +205,7 @@
     const maxT0 = Math.max(0, dur - span);
     let t0 = (view.c == null ? it.eventAt : view.c) - span / 2;
     t0 = Math.max(0, Math.min(t0, maxT0));
-    if (span >= dur) t0 = 0;
+    if (span >= dur) t0 = (dur - span) / 2; // all of it fits: centre it
     if (view.c != null) view.c = t0 + span / 2;
     const rowH = (H - TOP - BOTTOM) / Math.max(1, nrows);
     return { W, H, t0, span, dur, maxT0, pxPerSec, plotW, rowH, yGain: PX_PER_MM / st.sens, rate: it.rate };
@@ -227,15 +227,17 @@
     g.save();
     g.beginPath(); g.rect(LABEL_W, 0, G.plotW, H); g.clip();
     // Context outside the rated window is shaded.
-    g.fillStyle = "#f1f3f5";
+    g.fillStyle = "#e9edf1";
     const xa = xOf(G, it.from), xb = xOf(G, it.to);
-    if (xa > LABEL_W) g.fillRect(LABEL_W, TOP, xa - LABEL_W, yb - TOP);
-    if (xb < W - RIGHT) g.fillRect(xb, TOP, W - RIGHT - xb, yb - TOP);
+    const xs = Math.max(LABEL_W, xOf(G, 0)), xz = Math.min(W - RIGHT, xOf(G, G.dur));
+    if (xa > xs) g.fillRect(xs, TOP, xa - xs, yb - TOP);
+    if (xb < xz) g.fillRect(xb, TOP, xz - xb, yb - TOP);
     // Grid: a line each second counted from the event, fainter each 0.2 s.
     const fine = G.pxPerSec * 0.2 >= 8;
     for (let k = Math.ceil((G.t0 - it.eventAt) / 0.2); ; k++) {
       const t = it.eventAt + k * 0.2;
-      if (t > G.t0 + G.span) break;
+      if (t > Math.min(G.t0 + G.span, G.dur)) break;
+      if (t < 0) continue;
       const whole = k % 5 === 0;
       if (!whole && !fine) continue;
       const x = Math.round(xOf(G, t)) + 0.5;
@@ -273,7 +275,8 @@
     const step = G.pxPerSec >= 250 ? 0.2 : G.pxPerSec >= 50 ? 1 : 2;
     for (let k = Math.ceil((G.t0 - it.eventAt) / step - 1e-9); ; k++) {
       const dt = k * step, x = xOf(G, it.eventAt + dt);
-      if (x > W - RIGHT) break;
+      if (x > W - RIGHT || it.eventAt + dt > G.dur + 1e-9) break;
+      if (it.eventAt + dt < -1e-9) continue;
       if (x < LABEL_W + 12 || x > sc.x0 - 24) continue; // clear of the scale bars
       const v = Math.abs(dt) < 1e-9 ? "0 s" : (dt > 0 ? "+" : "\u2212") + (step < 1 ? Math.abs(dt).toFixed(1) : Math.abs(dt)) + " s";
       g.fillText(v, x, yb + 4);
