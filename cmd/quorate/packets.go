@@ -128,8 +128,11 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	for _, w := range warns {
 		g.log.Warn("packets", "warning", w)
 	}
+	// The page opens with study.yaml's montage and filters; raters may change them.
+	filters := packet.Filters{LowHz: c.Signal.Bandpass[0], HighHz: c.Signal.Bandpass[1], NotchHz: c.Signal.NotchHz}
 	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
-		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir)})
+		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir),
+		Montages: packet.FirstMontage(packet.DefaultMontages(items[0].Electrodes), c.Signal.Montage), Filters: &filters})
 	var exists *packet.ExistsError
 	if errors.As(err, &exists) {
 		// The domain names no flags; the command does.
@@ -141,7 +144,7 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	seed := f.seed
 	if err := s.Record(study.Entry{Version: Version, Command: "packets", Argv: g.argv, Seed: &seed,
 		Inputs: s.Hash(drawPath, indexPath), Outputs: s.Hash(s.Path(study.PacketsDir)),
-		Notes: map[string]any{"raters": raters, "items": len(items)}}); err != nil {
+		Notes: map[string]any{"raters": raters, "events": len(items), "items_per_packet": len(res.Manifest.Packets[0].Items)}}); err != nil {
 		return err
 	}
 	// The same three counts as status prints: events, items (showings) and hidden duplicates.

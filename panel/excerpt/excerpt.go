@@ -21,10 +21,11 @@ import (
 type Options struct {
 	Rows       []draw.Row
 	Recordings []archive.Recording
-	Roots      []string // archive roots; Recording.Root indexes them
-	WindowS    float64  // seconds shown, centred on the event (default 10)
-	MaxRate    float64  // traces are decimated to at most this rate (default 128 Hz)
-	Bandpass   [2]float64
+	Roots      []string   // archive roots; Recording.Root indexes them
+	WindowS    float64    // seconds rated, centred on the event (default 10)
+	ContextS   float64    // seconds of context either side of the rated window (default 3)
+	MaxRate    float64    // above this rate traces are decimated by a whole factor (default 512 Hz)
+	Bandpass   [2]float64 // filters of the voltage map, which the page does not refilter
 	NotchHz    float64
 	MapSize    int // voltage-map grid (default 40)
 	Progress   func(total int, desc string) progress.Bar
@@ -37,9 +38,14 @@ func (e *MissingError) Error() string {
 	return fmt.Sprintf("%d recording(s) of the draw are missing from the archive since the scan: %v (run quorate scan, or restore them)", len(e.Paths), e.Paths)
 }
 
-// marginS is read on each side of a window so the forward–backward filter's edge
-// transients fall outside what the rater sees.
-const marginS = 3
+// DefaultContextS is the context shown on either side of the rated window; the
+// page's filters run over it, so their edge transients stay in the context.
+const DefaultContextS = 3
+
+// DefaultMaxRate keeps the recorded rate of every common EEG system (200–512
+// Hz) and decimates only higher rates, which add nothing to reading at the
+// page's highest high-frequency filter setting. // common practice
+const DefaultMaxRate = 512
 
 // Cut returns one item per drawn row, in draw order, and warnings. The electrode set is
 // the standard electrodes present in every recording of the draw, so that every item of
@@ -48,8 +54,11 @@ func Cut(o Options) ([]packet.Item, []string, error) {
 	if o.WindowS <= 0 {
 		o.WindowS = 10
 	}
+	if o.ContextS <= 0 {
+		o.ContextS = DefaultContextS
+	}
 	if o.MaxRate <= 0 {
-		o.MaxRate = 128
+		o.MaxRate = DefaultMaxRate
 	}
 	if o.MapSize <= 0 {
 		o.MapSize = 40
@@ -119,7 +128,7 @@ func Cut(o Options) ([]packet.Item, []string, error) {
 		}
 		for _, i := range byRec[id] {
 			r := o.Rows[i]
-			it, err := c.item(r.OnsetS)
+			it, atPeak, err := c.item(r.OnsetS)
 			if err != nil {
 				rd.Close()
 				return nil, warnings, fmt.Errorf("%s, event at %.3f s: %w", pathOf(o.Roots, rec), r.OnsetS, err)
@@ -127,7 +136,7 @@ func Cut(o Options) ([]packet.Item, []string, error) {
 			it.EventID, it.Electrodes = r.EventID, electrodes
 			it.Source = map[string]string{"subject": r.SubjectKey, "recording": r.RecordingID,
 				"onset_s": fmt.Sprintf("%.4f", r.OnsetS), "stratum": r.Stratum, "kind": r.Kind}
-			it.Map = mapOf(ip, it, electrodes, marks, o.MapSize)
+			it.Map = mapOf(ip, atPeak, marks, o.MapSize)
 			items[i] = it
 			bar.Add(1)
 		}
@@ -174,14 +183,16 @@ func commonElectrodes(rows []draw.Row, recs map[string]archive.Recording) ([]str
 
 // cutter reads windows of one recording.
 type cutter struct {
-	rd     *edf.Reader
-	sig    []int
-	fs     float64
-	factor int
-	rate   float64
-	sos    signal.SOS
-	window int // samples shown at the recording's rate
-	margin int
+	rd      *edf.Reader
+	sig     []int
+	fs      float64
+	factor  int
+	rate    float64
+	mapSOS  signal.SOS // the study's filters, for the voltage map only
+	antiAl  signal.SOS // anti-aliasing low-pass before decimation; nil when factor is 1
+	window  int        // rated samples at the recording's rate
+	context int        // context samples on each side
+	cond    string
 }
 
 func newCutter(rd *edf.Reader, electrodes []string, o Options) (*cutter, error) {
@@ -205,14 +216,25 @@ func newCutter(rd *edf.Reader, electrodes []string, o Options) (*cutter, error) 
 		c.fs = fs
 		c.sig = append(c.sig, idx)
 	}
-	c.factor = max(1, int(math.Floor(c.fs/o.MaxRate)))
+	c.factor = max(1, int(math.Ceil(c.fs/o.MaxRate-1e-9)))
 	c.rate = c.fs / float64(c.factor)
+	c.cond = fmt.Sprintf("as recorded at %g Hz, mean removed, no filter", c.fs)
+	if c.factor > 1 {
+		// Butterworth low-pass at 0.4 of the new rate, forward and backward,
+		// keeps aliases below -40 dB at the new Nyquist frequency.
+		aa, err := signal.Butterworth(signal.LowPass, 4, c.fs, 0.4*c.rate)
+		if err != nil {
+			return nil, err
+		}
+		c.antiAl = aa
+		c.cond = fmt.Sprintf("recorded at %g Hz, low-pass %g Hz and decimated to %g Hz, mean removed", c.fs, 0.4*c.rate, c.rate)
+	}
 	lo, hi := o.Bandpass[0], o.Bandpass[1]
 	if lo <= 0 {
 		lo = 0.5
 	}
-	if hi <= 0 || hi > 0.45*c.rate {
-		hi = 0.45 * c.rate // also the anti-aliasing filter of the decimation
+	if hi <= 0 || hi > 0.45*c.fs {
+		hi = 0.45 * c.fs
 	}
 	sos, err := signal.Butterworth(signal.BandPass, 2, c.fs, lo, hi)
 	if err != nil {
@@ -225,50 +247,71 @@ func newCutter(rd *edf.Reader, electrodes []string, o Options) (*cutter, error) 
 		}
 		sos = signal.Cascade(sos, n)
 	}
-	c.sos = sos
+	c.mapSOS = sos
 	c.window = int(math.Round(o.WindowS * c.fs))
-	c.margin = int(marginS * c.fs)
+	c.context = int(math.Round(o.ContextS * c.fs))
 	return c, nil
 }
 
-func (c *cutter) item(onset float64) (packet.Item, error) {
+// item reads the rated window and its context around onset. Samples before
+// the recording's start or after its end are padded flat, not shifted, so
+// the event stays at the same place on every item.
+func (c *cutter) item(onset float64) (packet.Item, []float64, error) {
 	n := c.rd.NumRecords() * int64(c.rd.Header().Signals[c.sig[0]].SamplesPerRecord)
-	start := int64(math.Round(onset*c.fs)) - int64(c.window/2)
-	from := start - int64(c.margin)
-	total := c.window + 2*c.margin
-	out := packet.Item{Rate: c.rate, EventAt: float64(c.window/2) / c.fs}
+	from := int64(math.Round(onset*c.fs)) - int64(c.window/2) - int64(c.context)
+	total := c.window + 2*c.context
+	out := packet.Item{Rate: c.rate, Conditioning: c.cond,
+		EventAt:   float64(c.context+c.window/2) / c.fs,
+		RatedFrom: float64(c.context) / c.fs, RatedTo: float64(c.context+c.window) / c.fs}
+	atPeak := make([]float64, 0, len(c.sig)) // filtered values at the event, for the map
 	buf := make([]float32, total)
+	filt := make([]float32, total)
 	for _, s := range c.sig {
 		clear(buf)
 		lo := max(from, 0)
 		hi := min(from+int64(total), n)
 		if hi > lo {
 			if _, err := c.rd.ReadSignal(s, lo, buf[lo-from:hi-from]); err != nil {
-				return out, err
+				return out, nil, err
 			}
 		}
-		if err := signal.FiltFilt32(c.sos, buf); err != nil {
-			return out, err
+		var mean float64
+		if hi > lo {
+			for _, v := range buf[lo-from : hi-from] {
+				mean += float64(v)
+			}
+			mean /= float64(hi - lo)
+			for j := range buf[lo-from : hi-from] {
+				buf[lo-from+int64(j)] -= float32(mean)
+			}
 		}
-		shown := buf[c.margin : c.margin+c.window]
-		dec := make([]float32, 0, c.window/c.factor+1)
-		for j := 0; j < len(shown); j += c.factor {
-			dec = append(dec, shown[j])
+		copy(filt, buf)
+		if err := signal.FiltFilt32(c.mapSOS, filt); err != nil {
+			return out, nil, err
+		}
+		atPeak = append(atPeak, float64(filt[c.context+c.window/2]))
+		x := buf
+		if c.antiAl != nil {
+			x = slices.Clone(buf)
+			if err := signal.FiltFilt32(c.antiAl, x); err != nil {
+				return out, nil, err
+			}
+		}
+		dec := make([]float32, 0, total/c.factor+1)
+		for j := 0; j < total; j += c.factor {
+			dec = append(dec, x[j])
 		}
 		out.Samples = append(out.Samples, dec)
 	}
-	return out, nil
+	return out, atPeak, nil
 }
 
-// mapOf interpolates the common-average map at the event sample.
-func mapOf(ip *spline.Interpolator, it packet.Item, electrodes []string, marks []packet.MapElectrode, size int) packet.VoltageMap {
-	j := int(math.Round(it.EventAt * it.Rate))
-	v := make([]float64, len(electrodes))
+// mapOf interpolates the common-average map of the filtered values at the
+// event sample.
+func mapOf(ip *spline.Interpolator, atPeak []float64, marks []packet.MapElectrode, size int) packet.VoltageMap {
+	v := slices.Clone(atPeak)
 	mean := 0.0
 	for i := range v {
-		if j < len(it.Samples[i]) {
-			v[i] = float64(it.Samples[i][j])
-		}
 		mean += v[i]
 	}
 	mean /= float64(len(v))

@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"github.com/quorate-eeg/quorate/sampling/archive"
@@ -43,16 +44,19 @@ func TestCutWindowsAndMaps(t *testing.T) {
 		t.Fatalf("%d items, warnings %v", len(items), warns)
 	}
 	it := items[0]
-	// 256 Hz decimated by 2 to 128 Hz; 10 s shown, the event in the middle.
-	if it.Rate != 128 || len(it.Samples) != 19 || len(it.Samples[0]) != 1280 || it.EventAt != 5 || len(it.Electrodes) != 19 {
-		t.Fatalf("item: rate %v, %d traces of %d samples, event at %v", it.Rate, len(it.Samples), len(it.Samples[0]), it.EventAt)
+	// 256 Hz kept; 10 s rated and 3 s of context either side, the event in the middle.
+	if it.Rate != 256 || len(it.Samples) != 19 || len(it.Samples[0]) != 16*256 || it.EventAt != 8 || it.RatedFrom != 3 || it.RatedTo != 13 || len(it.Electrodes) != 19 {
+		t.Fatalf("item: rate %v, %d traces of %d samples, event at %v, rated %v–%v", it.Rate, len(it.Samples), len(it.Samples[0]), it.EventAt, it.RatedFrom, it.RatedTo)
+	}
+	if !strings.Contains(it.Conditioning, "256 Hz") {
+		t.Errorf("conditioning %q does not state the rate", it.Conditioning)
 	}
 	if it.EventID != "ev-a" || it.Source["recording"] != recs[0].RecordingID {
 		t.Errorf("key fields: %q %v", it.EventID, it.Source)
 	}
-	// Before the recording's start the window is padded with a flat line (zeros, up to
-	// the filter's faint ringing), not shifted.
-	if v := items[1].Samples[0][0]; math.Abs(float64(v)) > 0.5 {
+	// Before the recording's start the window is padded with a flat line (zeros), not
+	// shifted.
+	if v := items[1].Samples[0][0]; v != 0 {
 		t.Errorf("padding before the start: %v", v)
 	}
 	m := it.Map
@@ -69,6 +73,21 @@ func TestCutWindowsAndMaps(t *testing.T) {
 		if !ok || d.Angle(p) > 5*math.Pi/180 {
 			t.Errorf("%s drawn at pixel (%d,%d), %.1f° from its position", e.Name, row, col, d.Angle(p)*180/math.Pi)
 		}
+	}
+}
+
+// Above MaxRate the traces are decimated by a whole factor after a low-pass, and the
+// item says so.
+func TestCutDecimatesAboveMaxRate(t *testing.T) {
+	arch, recs, _ := fixture(t)
+	rows := []draw.Row{{EventID: "ev-a", RecordingID: recs[0].RecordingID, OnsetS: 12.5}}
+	items, _, err := Cut(Options{Rows: rows, Recordings: recs, Roots: []string{arch}, MaxRate: 128})
+	if err != nil {
+		t.Fatal(err)
+	}
+	it := items[0]
+	if it.Rate != 128 || len(it.Samples[0]) != 16*128 || !strings.Contains(it.Conditioning, "decimated to 128 Hz") {
+		t.Errorf("rate %v, %d samples, conditioning %q", it.Rate, len(it.Samples[0]), it.Conditioning)
 	}
 }
 

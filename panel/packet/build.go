@@ -51,7 +51,11 @@ func Build(items []Item, opt Options) (*Result, error) {
 	for i, it := range items {
 		eventIDs[i] = it.EventID
 		t := encodeTraces(it.Samples, res)
-		enc[i] = pageItem{Rate: it.Rate, N: len(it.Samples[0]), EventAt: it.EventAt, Scale: t.Scale, Traces: t.Data}
+		from, to := it.RatedFrom, it.RatedTo
+		if from == 0 && to == 0 {
+			to = float64(len(it.Samples[0])) / it.Rate
+		}
+		enc[i] = pageItem{Rate: it.Rate, N: len(it.Samples[0]), EventAt: it.EventAt, From: from, To: to, Cond: it.Conditioning, Scale: t.Scale, Traces: t.Data}
 		if it.Map.Size > 0 {
 			s, v := encodeMap(it.Map.Values)
 			pm := &pageMap{Size: it.Map.Size, Scale: s, Values: v, Electrodes: []pageMapElec{}}
@@ -86,8 +90,10 @@ func Build(items []Item, opt Options) (*Result, error) {
 			Format: PageFormat, Version: 1, Study: opt.StudyID, Packet: pid, Rater: rater,
 			Sensitivity: orDefault(opt.Sensitivity, DefaultSensitivity),
 			TimeBase:    orDefault(opt.TimeBase, DefaultTimeBase),
-			Electrodes:  items[0].Electrodes, Montages: pm,
+			Electrodes:  items[0].Electrodes, Montages: pm, Events: len(items),
 		}
+		f := opt.filters()
+		d.Filters = pageFilters{f.LowHz, f.HighHz, f.NotchHz}
 		for k, s := range order {
 			var c string
 			for attempt := 0; ; attempt++ {
@@ -192,6 +198,9 @@ func validate(items []Item, opt Options) error {
 		return optErr("DuplicateShare", "want at most 0.5")
 	case opt.Resolution < 0 || opt.Sensitivity < 0 || opt.TimeBase < 0:
 		return optErr("Resolution/Sensitivity/TimeBase", "must not be negative")
+	case opt.Filters != nil && (opt.Filters.LowHz < 0 || opt.Filters.HighHz < 0 || (opt.Filters.HighHz > 0 && opt.Filters.HighHz <= opt.Filters.LowHz) ||
+		(opt.Filters.NotchHz != 0 && opt.Filters.NotchHz != 50 && opt.Filters.NotchHz != 60)):
+		return optErr("Filters", "want low ≥ 0, high 0 (off) or above low, notch 0, 50 or 60 Hz")
 	case opt.OutDir == "":
 		return optErr("OutDir", "empty")
 	}
@@ -229,6 +238,8 @@ func validate(items []Item, opt Options) error {
 			return e("Samples", "empty traces")
 		case !(it.EventAt >= 0) || it.EventAt > float64(len(it.Samples[0]))/it.Rate:
 			return e("EventAt", "outside the window")
+		case it.RatedFrom < 0 || it.RatedTo < it.RatedFrom || it.RatedTo > float64(len(it.Samples[0]))/it.Rate+1e-9 || math.IsNaN(it.RatedFrom+it.RatedTo):
+			return e("RatedFrom/RatedTo", "want 0 ≤ RatedFrom ≤ RatedTo ≤ the excerpt's duration")
 		case it.Map.Size < 0 || len(it.Map.Values) != it.Map.Size*it.Map.Size:
 			return e("Map", fmt.Sprintf("%d values for a %d×%d grid", len(it.Map.Values), it.Map.Size, it.Map.Size))
 		}

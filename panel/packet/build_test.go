@@ -76,9 +76,14 @@ func TestNoLeak(t *testing.T) {
 	if !strings.Contains(key[0].Source, LeakStrings[0]) || !strings.HasPrefix(key[0].EventID, "EVT-") {
 		t.Errorf("key row lacks provenance: %+v", key[0])
 	}
+	// The source column is one plain JSON object a spreadsheet or jq can read.
+	var src map[string]string
+	if err := json.Unmarshal([]byte(key[0].Source), &src); err != nil || src["subject"] != LeakStrings[0] || src["score"] != LeakStrings[6] {
+		t.Errorf("source %q: %v", key[0].Source, err)
+	}
 	// The page's data blob holds only the documented fields.
 	d := pageBlob(t, res.Packets[0].Page)
-	allowed := []string{"code", "rate", "n", "eventAt", "scale", "traces", "map"}
+	allowed := []string{"code", "rate", "n", "eventAt", "from", "to", "cond", "scale", "traces", "map"}
 	for _, it := range d["items"].([]any) {
 		for k := range it.(map[string]any) {
 			if !slices.Contains(allowed, k) {
@@ -275,19 +280,19 @@ func TestBuildExistingFolder(t *testing.T) {
 	}
 }
 
-// A 300-item packet (21 channels, 10 s at 128 Hz) must stay far under 20 MB.
+// A packet grows linearly with its items, so 30 items (21 channels, 16 s at
+// 256 Hz: 10 s rated and 3 s of context either side, as excerpt cuts them)
+// stand for 300: at most 110 kB per item keeps a 300-event packet (330
+// items with duplicates) under 37 MB.
 func TestPacketSize300(t *testing.T) {
-	if testing.Short() {
-		t.Skip("builds 300 items")
-	}
-	items := SynthItems(300, 10, 128, 11)
+	items := SynthItems(30, 16, 256, 11)
 	res, err := Build(items, testOptions(t.TempDir(), "alice"))
 	if err != nil {
 		t.Fatal(err)
 	}
-	size := res.Packets[0].PageBytes
-	t.Logf("300-item packet (330 slots with duplicates): review.html %.2f MB", float64(size)/1e6)
-	if size > 12e6 {
-		t.Errorf("review.html is %d bytes, want well under 20 MB (≤ 12 MB)", size)
+	per := float64(res.Packets[0].PageBytes) / float64(len(res.Manifest.Packets[0].Items))
+	t.Logf("%.1f kB per item: a 300-event packet (330 items) ≈ %.1f MB", per/1e3, per*330/1e6)
+	if per > 110e3 {
+		t.Errorf("%.0f bytes per item, want at most 110 kB", per)
 	}
 }

@@ -16,11 +16,21 @@ type Item struct {
 	// Every item of a build must share the same list, because montages index
 	// into it.
 	Electrodes []string
-	// Samples holds one trace per electrode in µV, all the same length: a
-	// window (10 s by default) centred on the event.
+	// Samples holds one trace per electrode in µV, all the same length: the
+	// rated window (10 s by default) centred on the event, with context on
+	// either side. They should be as recorded (at most the mean removed and,
+	// above 512 Hz, a stated decimation): the page filters them itself, with
+	// controls, so the rater sees and sets the filters in force.
 	Samples [][]float32
-	// EventAt is the event time in seconds from the start of the window.
+	// EventAt is the event time in seconds from the start of Samples.
 	EventAt float64
+	// RatedFrom and RatedTo bound the rated window in seconds from the start
+	// of Samples; the rest is context, shown shaded. Both zero mean all of
+	// Samples is rated.
+	RatedFrom, RatedTo float64
+	// Conditioning says in words what was done to Samples before packing
+	// (for example "as recorded at 256 Hz, mean removed"); the page shows it.
+	Conditioning string
 	// Map is the voltage map at the event peak; a zero Size means none.
 	Map VoltageMap
 }

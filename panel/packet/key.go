@@ -2,8 +2,6 @@ package packet
 
 import (
 	"encoding/json"
-	"maps"
-	"slices"
 
 	"github.com/quorate-eeg/quorate/internal/parquetfile"
 )
@@ -16,7 +14,7 @@ type KeyRow struct {
 	EventID   string `parquet:"event_id"`
 	Duplicate bool   `parquet:"duplicate"` // the second copy of a hidden duplicate
 	Position  int32  `parquet:"position"`  // 1-based place in the rater's order
-	Source    string `parquet:"source"`    // Item.Source as JSON with sorted keys
+	Source    string `parquet:"source"`    // Item.Source as a JSON object of strings, keys sorted
 }
 
 // ReadKey reads a key written by Build.
@@ -28,16 +26,13 @@ func writeKey(path string, rows []KeyRow) error {
 	return parquetfile.Write(path, rows, 0o600) // the coordinator's eyes only
 }
 
-// sourceJSON encodes provenance with sorted keys so the key is reproducible.
+// sourceJSON encodes provenance as one JSON object of strings
+// ({"recording":"…","subject":"…"}); encoding/json sorts map keys, so the
+// key is reproducible.
 func sourceJSON(src map[string]string) string {
 	if len(src) == 0 {
 		return ""
 	}
-	type kv struct{ K, V string }
-	var out []kv
-	for _, k := range slices.Sorted(maps.Keys(src)) {
-		out = append(out, kv{k, src[k]})
-	}
-	b, _ := json.Marshal(out) // strings always encode
+	b, _ := json.Marshal(src) // strings always encode
 	return string(b)
 }

@@ -1,6 +1,10 @@
 package packet
 
-import "github.com/quorate-eeg/quorate/sampling/montage"
+import (
+	"strings"
+
+	"github.com/quorate-eeg/quorate/sampling/montage"
+)
 
 // DefaultMontages returns the referential, common average, longitudinal
 // bipolar and transverse bipolar montages for the given electrodes, as
@@ -24,4 +28,21 @@ func DefaultMontages(electrodes []string) []Montage {
 		out = append(out, mt)
 	}
 	return out
+}
+
+// FirstMontage returns ms with the montage named first moved to the front,
+// the others keeping their order. Names are compared ignoring case, with
+// '-' and '_' read as spaces, so "longitudinal-bipolar" finds "Longitudinal
+// bipolar". An unknown or empty name leaves ms as it is.
+func FirstMontage(ms []Montage, first string) []Montage {
+	norm := func(s string) string {
+		return strings.ToLower(strings.NewReplacer("-", " ", "_", " ").Replace(strings.TrimSpace(s)))
+	}
+	for i, m := range ms {
+		if norm(m.Name) == norm(first) && first != "" {
+			out := append([]Montage{m}, ms[:i]...)
+			return append(out, ms[i+1:]...)
+		}
+	}
+	return ms
 }

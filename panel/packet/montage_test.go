@@ -29,3 +29,15 @@ func TestDefaultMontages1020(t *testing.T) {
 		t.Errorf("partial set: %d montages", len(got))
 	}
 }
+
+func TestFirstMontage(t *testing.T) {
+	ms := DefaultMontages(Electrodes1020)
+	// study.yaml spells montages in lower case with hyphens.
+	got := FirstMontage(ms, "longitudinal-bipolar")
+	if got[0].Name != "Longitudinal bipolar" || got[1].Name != "Referential" || got[3].Name != "Transverse bipolar" || len(got) != 4 {
+		t.Errorf("order %v", []string{got[0].Name, got[1].Name, got[2].Name, got[3].Name})
+	}
+	if got := FirstMontage(ms, "no-such"); got[0].Name != "Referential" {
+		t.Errorf("unknown name reordered: %s first", got[0].Name)
+	}
+}

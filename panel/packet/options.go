@@ -26,6 +26,9 @@ type Options struct {
 	// Sensitivity (µV/mm) and TimeBase (mm/s) the page opens with; zero
 	// means 7 µV/mm and 30 mm/s.
 	Sensitivity, TimeBase float64
+	// Filters the page opens with; nil means DefaultFilters. The rater can
+	// change them; the page states which are in force.
+	Filters *Filters
 	// Replace allows an existing packet folder, key or manifest to be moved
 	// aside (to <name>.replaced-<n>) instead of refusing.
 	Replace bool
@@ -64,4 +67,22 @@ func orDefault(v, d float64) float64 {
 		return d
 	}
 	return v
+}
+
+// Filters are the page's display filters, applied in the browser forward
+// and backward (zero phase). A zero frequency means that filter is off.
+type Filters struct {
+	LowHz   float64 // low-frequency filter (high-pass) cut-off, Hz
+	HighHz  float64 // high-frequency filter (low-pass) cut-off, Hz
+	NotchHz float64 // notch at the mains frequency: 50, 60 or 0
+}
+
+// DefaultFilters are 0.5–70 Hz with a 50 Hz notch. // common practice
+var DefaultFilters = Filters{LowHz: 0.5, HighHz: 70, NotchHz: 50}
+
+func (o Options) filters() Filters {
+	if o.Filters == nil {
+		return DefaultFilters
+	}
+	return *o.Filters
 }

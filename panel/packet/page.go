@@ -29,9 +29,17 @@ type pageData struct {
 	Check       string        `json:"check"`
 	Sensitivity float64       `json:"sensitivity"`
 	TimeBase    float64       `json:"timeBase"`
+	Filters     pageFilters   `json:"filters"`
+	Events      int           `json:"events"` // distinct events; len(Items) counts repeats
 	Electrodes  []string      `json:"electrodes"`
 	Montages    []pageMontage `json:"montages"`
 	Items       []pageItem    `json:"items"`
+}
+
+type pageFilters struct {
+	Low   float64 `json:"low"`
+	High  float64 `json:"high"`
+	Notch float64 `json:"notch"`
 }
 
 type pageMontage struct {
@@ -50,6 +58,9 @@ type pageItem struct {
 	Rate    float64  `json:"rate"`
 	N       int      `json:"n"` // samples per channel
 	EventAt float64  `json:"eventAt"`
+	From    float64  `json:"from"` // rated window, seconds from the start
+	To      float64  `json:"to"`
+	Cond    string   `json:"cond,omitempty"`
 	Scale   float64  `json:"scale"`
 	Traces  string   `json:"traces"`
 	Map     *pageMap `json:"map,omitempty"`

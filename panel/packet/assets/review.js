@@ -12,25 +12,32 @@
   ];
   const SENS = [1, 1.5, 2, 3, 5, 7, 10, 15, 20, 30, 50, 70, 100, 150, 200];
   const TB = [10, 15, 20, 25, 30, 40, 60, 120];
+  const LFF = [0, 0.1, 0.3, 0.5, 1, 1.6, 3, 5];
+  const HFF = [0, 15, 30, 35, 40, 50, 70, 100];
+  const NOTCH = [0, 50, 60];
+  const CJ = "cannot-judge";
   const $ = (id) => document.getElementById(id);
   const N = D.items.length;
+  const F0 = D.filters || { low: 0, high: 0, notch: 0 };
 
   // ---- state and autosave -------------------------------------------------
   function blank() { return { c1: "", c2: "", c3: "", c4: "", c5: "", c6: "", verdict: "", confidence: null, comment: "" }; }
-  let st = { answers: {}, index: 0, montage: 0, sens: D.sensitivity, tb: D.timeBase };
+  let st = { answers: {}, index: 0, montage: 0, sens: D.sensitivity, tb: D.timeBase, lff: F0.low, hff: F0.high, notch: F0.notch, auto: false };
   let storageOK = true;
   try {
     const saved = JSON.parse(localStorage.getItem(STORE) || "null");
     if (saved && typeof saved === "object" && saved.answers) st = Object.assign(st, saved);
   } catch (e) { storageOK = false; }
-  for (const it of D.items) {
-    const a = Object.assign(blank(), st.answers[it.code] || {});
-    st.answers[it.code] = a;
-  }
+  for (const it of D.items) st.answers[it.code] = Object.assign(blank(), st.answers[it.code] || {});
   st.index = Math.min(Math.max(0, st.index | 0), N - 1);
   st.montage = Math.min(Math.max(0, st.montage | 0), D.montages.length - 1);
-  if (!SENS.includes(st.sens)) SENS.push(st.sens), SENS.sort((a, b) => a - b);
-  if (!TB.includes(st.tb)) TB.push(st.tb), TB.sort((a, b) => a - b);
+  for (const [list, k] of [[SENS, "sens"], [TB, "tb"], [LFF, "lff"], [HFF, "hff"], [NOTCH, "notch"]]) {
+    if (typeof st[k] !== "number" || !isFinite(st[k])) st[k] = list[0];
+    if (!list.includes(st[k])) list.push(st[k]), list.sort((a, b) => a - b);
+  }
+  // view: the time at the centre of the traces (null: the event), kept when
+  // the time base changes, and the caliper; neither is saved.
+  const view = { c: null, cal: null };
 
   function persist() {
     try { localStorage.setItem(STORE, JSON.stringify(st)); }
@@ -44,8 +51,7 @@
   const critKeys = ["c1", "c2", "c3", "c4", "c5", "c6"];
   const rated = (a) => critKeys.every((k) => a[k]) && !!a.verdict;
   const touched = (a) => critKeys.some((k) => a[k]) || !!a.verdict || a.confidence != null || a.comment !== "";
-  function status(msg, warn) { const s = $("status"); s.textContent = msg; s.className = "status" + (warn ? " warn" : ""); }
-
+  function status(msg, warn) { const s = $("status"); s.textContent = msg; s.title = msg; s.className = "status" + (warn ? " warn" : ""); }
   // ---- decoding -------------------------------------------------------------
   async function gunzip(b64) {
     const bin = atob(b64);
@@ -107,72 +113,276 @@
     });
   }
 
+
+  // ---- display filters ------------------------------------------------------
+  // Second-order sections from the bilinear transform with pre-warping
+  // (Bristow-Johnson, Audio EQ Cookbook): Butterworth high- and low-pass
+  // (Q = 1/√2) and a notch of Q = 30. Each runs forward and then backward
+  // (zero phase), so a cut-off is at half amplitude (−6 dB, the square of a
+  // Butterworth's −3 dB) and peaks do not move in time.
+  function biquad(kind, f, fs) {
+    const w = 2 * Math.PI * f / fs, cw = Math.cos(w), q = kind === "notch" ? 30 : Math.SQRT1_2, al = Math.sin(w) / (2 * q);
+    let b;
+    if (kind === "low") b = [(1 - cw) / 2, 1 - cw, (1 - cw) / 2];
+    else if (kind === "high") b = [(1 + cw) / 2, -(1 + cw), (1 + cw) / 2];
+    else b = [1, -2 * cw, 1];
+    const a0 = 1 + al;
+    return [b[0] / a0, b[1] / a0, b[2] / a0, -2 * cw / a0, (1 - al) / a0];
+  }
+  function sections(fs, s) {
+    const out = [], nyq = fs / 2;
+    if (s.lff > 0 && s.lff < 0.45 * fs) out.push(biquad("high", s.lff, fs));
+    if (s.hff > 0 && s.hff < 0.45 * fs) out.push(biquad("low", s.hff, fs));
+    if (s.notch > 0 && s.notch < nyq * 0.9) out.push(biquad("notch", s.notch, fs));
+    return out;
+  }
+  // run filters x in place (direct form II transposed), starting from the
+  // steady state of the first sample so a step at the start does not ring.
+  function run(c, x) {
+    const [b0, b1, b2, a1, a2] = c, n = x.length;
+    if (!n) return;
+    const x0 = x[0], dc = (b0 + b1 + b2) / (1 + a1 + a2);
+    let z1 = x0 * (dc - b0), z2 = x0 * (b2 - a2 * dc);
+    for (let j = 0; j < n; j++) {
+      const v = x[j], y = b0 * v + z1;
+      z1 = b1 * v - a1 * y + z2;
+      z2 = b2 * v - a2 * y;
+      x[j] = y;
+    }
+  }
+  // filtfilt pads x at both ends with its odd reflection (2 s or what there
+  // is) so the edges of the context stay quiet, then filters forward and back.
+  function filtfilt(x, fs, s) {
+    const secs = sections(fs, s);
+    if (!secs.length) return x;
+    const n = x.length, p = Math.min(n - 1, Math.round(2 * fs));
+    const y = new Float64Array(n + 2 * p);
+    for (let j = 0; j < p; j++) {
+      y[j] = 2 * x[0] - x[p - j];
+      y[n + p + j] = 2 * x[n - 1] - x[n - 2 - j];
+    }
+    for (let j = 0; j < n; j++) y[p + j] = x[j];
+    for (const c of secs) { run(c, y); y.reverse(); run(c, y); y.reverse(); }
+    return Float32Array.from(y.subarray(p, p + n));
+  }
+  function filterText(s) {
+    const parts = [];
+    parts.push(s.lff > 0 ? "LFF " + s.lff + " Hz" : "LFF off");
+    parts.push(s.hff > 0 ? "HFF " + s.hff + " Hz" : "HFF off");
+    parts.push(s.notch > 0 ? "notch " + s.notch + " Hz" : "notch off");
+    return parts.join(" · ");
+  }
+  const shownCache = new Map();
+  // shown returns the traces as displayed: montage, then filters.
+  function shown(i, chans) {
+    const it = D.items[i], key = [i, st.montage, st.lff, st.hff, st.notch].join("|");
+    if (shownCache.has(key)) return shownCache.get(key);
+    const rows = derive(chans, D.montages[st.montage]).map((x) => filtfilt(x, it.rate, st));
+    shownCache.set(key, rows);
+    if (shownCache.size > 6) shownCache.delete(shownCache.keys().next().value);
+    return rows;
+  }
+
   // ---- drawing --------------------------------------------------------------
   const PX_PER_MM = 96 / 25.4; // CSS reference pixel (CSS Values 4 §6.2)
-  let drawSeq = 0;
+  const LABEL_W = 70, TOP = 16, BOTTOM = 22, RIGHT = 8;
+  let drawSeq = 0, geo = null;
   async function draw() {
     const seq = ++drawSeq, i = st.index, it = D.items[i];
     const dec = await decode(i);
     if (seq !== drawSeq) return;
-    drawTraces(it, dec.chans);
+    drawTraces(i, it, shown(i, dec.chans));
     drawMap(it, dec.map);
   }
+  function noteSignal(it) {
+    const dec = it.cond ? it.cond : "as packed";
+    $("signal-note").textContent = "In force: " + filterText(st) + " (zero phase) · " + it.rate + " samples/s · data " + dec;
+  }
 
-  function drawTraces(it, chans) {
+  function geometry(it, W, H, nrows) {
+    const plotW = W - LABEL_W - RIGHT, pxPerSec = st.tb * PX_PER_MM, span = plotW / pxPerSec;
+    const dur = it.n / it.rate;
+    const maxT0 = Math.max(0, dur - span);
+    let t0 = (view.c == null ? it.eventAt : view.c) - span / 2;
+    t0 = Math.max(0, Math.min(t0, maxT0));
+    if (span >= dur) t0 = (dur - span) / 2; // all of it fits: centre it
+    if (view.c != null) view.c = t0 + span / 2;
+    const rowH = (H - TOP - BOTTOM) / Math.max(1, nrows);
+    return { W, H, t0, span, dur, maxT0, pxPerSec, plotW, rowH, yGain: PX_PER_MM / st.sens, rate: it.rate };
+  }
+  const xOf = (g, t) => LABEL_W + (t - g.t0) * g.pxPerSec;
+  const tOf = (g, x) => g.t0 + (x - LABEL_W) / g.pxPerSec;
+  const baseOf = (g, r) => TOP + g.rowH * (r + 0.5);
+
+  function drawTraces(i, it, rows) {
     const cv = $("traces"), dpr = window.devicePixelRatio || 1;
     const W = cv.clientWidth, H = cv.clientHeight;
     cv.width = Math.round(W * dpr); cv.height = Math.round(H * dpr);
     const g = cv.getContext("2d");
     g.setTransform(dpr, 0, 0, dpr, 0, 0);
     g.fillStyle = "#ffffff"; g.fillRect(0, 0, W, H);
-    const mont = D.montages[st.montage], rows = derive(chans, mont);
-    const labelW = 76, plotW = W - labelW - 8, top = 6, bottom = 26;
-    const rowH = (H - top - bottom) / Math.max(1, rows.length);
-    const dur = it.n / it.rate, pxPerSec = st.tb * PX_PER_MM, shown = plotW / pxPerSec;
-    let t0 = it.eventAt - shown / 2;
-    t0 = Math.max(0, Math.min(t0, dur - shown));
-    if (shown >= dur) t0 = 0;
-    const xOf = (t) => labelW + (t - t0) * pxPerSec;
-    const yGain = PX_PER_MM / st.sens; // px per µV
+    const mont = D.montages[st.montage], G = geometry(it, W, H, rows.length);
+    geo = Object.assign(G, { rows, labels: mont.derivations.map((d) => d.label), item: i });
+    const yb = H - BOTTOM;
     g.save();
-    g.beginPath(); g.rect(labelW, 0, plotW, H); g.clip();
-    g.strokeStyle = "#e3e5e8"; g.lineWidth = 1;
-    for (let s = Math.ceil(t0); s <= t0 + shown; s++) {
-      const x = Math.round(xOf(s)) + 0.5;
-      g.beginPath(); g.moveTo(x, top); g.lineTo(x, H - bottom); g.stroke();
+    g.beginPath(); g.rect(LABEL_W, 0, G.plotW, H); g.clip();
+    // Context outside the rated window is shaded.
+    g.fillStyle = "#e9edf1";
+    const xa = xOf(G, it.from), xb = xOf(G, it.to);
+    const xs = Math.max(LABEL_W, xOf(G, 0)), xz = Math.min(W - RIGHT, xOf(G, G.dur));
+    if (xa > xs) g.fillRect(xs, TOP, xa - xs, yb - TOP);
+    if (xb < xz) g.fillRect(xb, TOP, xz - xb, yb - TOP);
+    // Grid: a line each second counted from the event, fainter each 0.2 s.
+    const fine = G.pxPerSec * 0.2 >= 8;
+    for (let k = Math.ceil((G.t0 - it.eventAt) / 0.2); ; k++) {
+      const t = it.eventAt + k * 0.2;
+      if (t > Math.min(G.t0 + G.span, G.dur)) break;
+      if (t < 0) continue;
+      const whole = k % 5 === 0;
+      if (!whole && !fine) continue;
+      const x = Math.round(xOf(G, t)) + 0.5;
+      g.strokeStyle = whole ? "#c9d0d8" : "#eceff2"; g.lineWidth = 1;
+      g.beginPath(); g.moveTo(x, TOP); g.lineTo(x, yb); g.stroke();
     }
-    const xe = xOf(it.eventAt);
-    g.strokeStyle = "#b0126a"; g.lineWidth = 1.5; g.setLineDash([6, 4]);
-    g.beginPath(); g.moveTo(xe, top); g.lineTo(xe, H - bottom); g.stroke();
+    // Event marker.
+    const xe = xOf(G, it.eventAt);
+    g.strokeStyle = "#a3155f"; g.lineWidth = 1.25; g.setLineDash([5, 4]);
+    g.beginPath(); g.moveTo(xe, TOP); g.lineTo(xe, yb); g.stroke();
     g.setLineDash([]);
-    g.fillStyle = "#b0126a";
-    g.beginPath(); g.moveTo(xe - 6, 0); g.lineTo(xe + 6, 0); g.lineTo(xe, 9); g.closePath(); g.fill();
-    g.strokeStyle = "#1b1f24"; g.lineWidth = 1;
-    const j0 = Math.max(0, Math.floor(t0 * it.rate)), j1 = Math.min(it.n - 1, Math.ceil((t0 + shown) * it.rate));
+    g.fillStyle = "#a3155f";
+    g.beginPath(); g.moveTo(xe - 6, 2); g.lineTo(xe + 6, 2); g.lineTo(xe, 11); g.closePath(); g.fill();
+    // Traces, negative up.
+    g.strokeStyle = "#111820"; g.lineWidth = 1;
+    const j0 = Math.max(0, Math.floor(G.t0 * it.rate)), j1 = Math.min(it.n - 1, Math.ceil((G.t0 + G.span) * it.rate));
     rows.forEach((y, r) => {
-      const base = top + rowH * (r + 0.5);
+      const base = baseOf(G, r);
       g.beginPath();
       for (let j = j0; j <= j1; j++) {
-        const px = xOf(j / it.rate), py = base + y[j] * yGain; // negative up
+        const px = xOf(G, j / it.rate), py = base + y[j] * G.yGain;
         if (j === j0) g.moveTo(px, py); else g.lineTo(px, py);
       }
       g.stroke();
     });
+    drawCaliper(g, G, rows);
     g.restore();
-    g.fillStyle = "#1b1f24"; g.font = "12px system-ui, sans-serif"; g.textBaseline = "middle"; g.textAlign = "right";
-    mont.derivations.forEach((d, r) => g.fillText(d.label, labelW - 6, top + rowH * (r + 0.5)));
-    // Scale bars: 1 s and 50 µV, so the display can be read on any screen.
-    const bx = W - 18, by = H - 8, barV = 50 * yGain, barT = pxPerSec;
-    g.strokeStyle = "#1b1f24"; g.lineWidth = 2;
-    g.beginPath(); g.moveTo(bx - barT, by); g.lineTo(bx, by); g.lineTo(bx, by - barV); g.stroke();
-    g.textAlign = "right"; g.textBaseline = "bottom";
-    g.fillText("1 s", bx - barT / 2 + 10, by - 2);
-    g.textAlign = "right"; g.textBaseline = "middle";
-    g.fillText("50 µV", bx - 4, by - barV / 2);
-    g.textAlign = "left"; g.textBaseline = "bottom";
-    g.fillText(mont.name + " · " + st.sens + " µV/mm · " + st.tb + " mm/s", labelW, H - 4);
+    // Channel labels.
+    g.fillStyle = "#16202a"; g.font = "12px system-ui, sans-serif"; g.textBaseline = "middle"; g.textAlign = "right";
+    geo.labels.forEach((l, r) => g.fillText(l, LABEL_W - 6, baseOf(G, r)));
+    // Time from the event along the bottom edge, every 2 s, 1 s or 0.2 s
+    // so that labels stay about 50 px or more apart.
+    const sc = scaleOf(G);
+    g.fillStyle = "#4d5966"; g.font = "11px system-ui, sans-serif"; g.textBaseline = "top"; g.textAlign = "center";
+    const step = G.pxPerSec >= 250 ? 0.2 : G.pxPerSec >= 50 ? 1 : 2;
+    for (let k = Math.ceil((G.t0 - it.eventAt) / step - 1e-9); ; k++) {
+      const dt = k * step, x = xOf(G, it.eventAt + dt);
+      if (x > W - RIGHT || it.eventAt + dt > G.dur + 1e-9) break;
+      if (it.eventAt + dt < -1e-9) continue;
+      if (x < LABEL_W + 12 || x > sc.x0 - 24) continue; // clear of the scale bars
+      const v = Math.abs(dt) < 1e-9 ? "0 s" : (dt > 0 ? "+" : "\u2212") + (step < 1 ? Math.abs(dt).toFixed(1) : Math.abs(dt)) + " s";
+      g.fillText(v, x, yb + 4);
+    }
+    g.textAlign = "left";
+    g.fillText("Time from the event. Grey: context outside the rated window.", LABEL_W + 2, 2);
+    drawScale(g, G, sc);
   }
 
+  // scaleOf picks a time bar of at most 150 px (1 s, 0.5 s or 0.2 s) and
+  // places it at the lower right.
+  function scaleOf(G) {
+    let secs = 1;
+    for (const s of [1, 0.5, 0.2, 0.1]) { secs = s; if (s * G.pxPerSec <= 150) break; }
+    const barT = secs * G.pxPerSec, xr = G.W - RIGHT - 44;
+    return { secs, barT, barV: 50 * G.yGain, xr, x0: xr - barT, yb: G.H - BOTTOM + 2 };
+  }
+  // drawScale draws the time and 50 µV bars, each label on its own side
+  // (time below its bar, voltage right of its bar), so they cannot overlap
+  // at any time base or sensitivity.
+  function drawScale(g, G, sc) {
+    const { barT, barV, xr, yb } = sc;
+    g.fillStyle = "rgba(255,255,255,0.85)";
+    g.fillRect(xr + 2, yb - barV / 2 - 8, 42, 16);
+    g.strokeStyle = "#16202a"; g.lineWidth = 2;
+    g.beginPath(); g.moveTo(xr - barT, yb); g.lineTo(xr, yb); g.lineTo(xr, yb - barV); g.stroke();
+    g.fillStyle = "#16202a"; g.font = "11px system-ui, sans-serif";
+    g.textAlign = "center"; g.textBaseline = "top";
+    g.fillText(sc.secs >= 1 ? "1 s" : sc.secs * 1000 + " ms", xr - barT / 2, yb + 3);
+    g.textAlign = "left"; g.textBaseline = "middle";
+    g.fillText("50 µV", xr + 4, yb - barV / 2);
+  }
+
+  // ---- caliper --------------------------------------------------------------
+  // The caliper snaps both ends to samples of the trace where the drag began
+  // and reports the time between them and the difference of the trace there.
+  function rowAt(y) {
+    if (!geo) return -1;
+    const r = Math.floor((y - TOP) / geo.rowH);
+    return r >= 0 && r < geo.rows.length ? r : -1;
+  }
+  function sampleAt(x) {
+    const j = Math.round(tOf(geo, x) * geo.rate);
+    return Math.max(0, Math.min(geo.rows[0].length - 1, j));
+  }
+  function drawCaliper(g, G, rows) {
+    const c = view.cal;
+    if (!c || c.item !== st.index || c.row >= rows.length) return;
+    const y = rows[c.row], base = baseOf(G, c.row);
+    const xa = xOf(G, c.j0 / G.rate), xb = xOf(G, c.j1 / G.rate);
+    const ya = base + y[c.j0] * G.yGain, yb = base + y[c.j1] * G.yGain;
+    g.strokeStyle = "#a3155f"; g.fillStyle = "#a3155f"; g.lineWidth = 1.5;
+    for (const [x, yy] of [[xa, ya], [xb, yb]]) {
+      g.beginPath(); g.moveTo(x, base - G.rowH * 0.9); g.lineTo(x, base + G.rowH * 0.9); g.stroke();
+      g.beginPath(); g.arc(x, yy, 3, 0, 2 * Math.PI); g.fill();
+    }
+    g.setLineDash([3, 3]);
+    g.beginPath(); g.moveTo(xa, ya); g.lineTo(xb, ya); g.lineTo(xb, yb); g.stroke();
+    g.setLineDash([]);
+  }
+  function caliperText() {
+    const c = view.cal, o = $("caliper");
+    if (!c || c.item !== st.index || !geo) { o.textContent = "Drag along a trace to measure duration and amplitude."; o.className = "caliper"; return; }
+    const y = geo.rows[c.row], dt = (c.j1 - c.j0) / geo.rate * 1000, dv = y[c.j1] - y[c.j0];
+    c.ms = dt; c.uv = dv;
+    o.textContent = geo.labels[c.row] + ": " + Math.abs(dt).toFixed(1) + " ms (" + Math.abs(c.j1 - c.j0) + " samples), " +
+      (dv >= 0 ? "+" : "\u2212") + Math.abs(dv).toFixed(1) + " µV (negative up: + is downward)";
+    o.className = "caliper on";
+  }
+  function canvasXY(ev) {
+    const r = $("traces").getBoundingClientRect();
+    return [ev.clientX - r.left, ev.clientY - r.top];
+  }
+  let dragging = false;
+  function calDown(ev) {
+    if (ev.button !== 0 || !geo) return;
+    const [x, y] = canvasXY(ev), r = rowAt(y);
+    if (r < 0 || x < LABEL_W) return;
+    const j = sampleAt(x);
+    view.cal = { item: st.index, row: r, j0: j, j1: j };
+    dragging = true;
+    ev.preventDefault();
+    redrawNow();
+  }
+  function calMove(ev) {
+    if (!dragging || !view.cal) return;
+    view.cal.j1 = sampleAt(canvasXY(ev)[0]);
+    redrawNow();
+  }
+  function calUp(ev) { if (dragging) { calMove(ev); dragging = false; } }
+  function redrawNow() {
+    const p = cache.get(st.index);
+    if (!p) return (later = draw());
+    later = p.then((dec) => { drawTraces(st.index, D.items[st.index], shown(st.index, dec.chans)); caliperText(); syncPan(); });
+  }
+  function pan(dt) {
+    if (!geo) return;
+    view.c = Math.max(0, Math.min(geo.maxT0, geo.t0 + dt)) + geo.span / 2;
+    redrawNow();
+  }
+  function syncPan() {
+    const p = $("pan");
+    if (!geo) return;
+    p.max = String(geo.maxT0 || 0); p.step = "0.05"; p.value = String(geo.t0);
+    p.disabled = !(geo.maxT0 > 0);
+  }
   // A diverging palette of our own: deep blue (negative) through warm grey
   // (zero) to burnt orange (positive); the two arms differ in hue and in
   // lightness, so they stay apart for red–green colour-blind readers.
@@ -245,17 +455,17 @@
   }
 
   // ---- form -----------------------------------------------------------------
+  const CHOICES = [["present", "present"], ["absent", "absent"], [CJ, "cannot judge"]];
   function buildForm() {
     const fs = $("criteria-set");
     CRIT.forEach(([name, def], q) => {
       const k = "c" + (q + 1), row = document.createElement("div");
       row.className = "crit"; row.id = "row-" + k;
-      row.innerHTML = '<span class="num" aria-hidden="true">' + (q + 1) + '</span><span class="name" id="lbl-' + k + '" title=""></span>' +
-        '<label><input type="radio" name="' + k + '" value="present"> present</label>' +
-        '<label><input type="radio" name="' + k + '" value="absent"> absent</label>';
+      row.innerHTML = '<span class="num" aria-hidden="true">' + (q + 1) + '</span><span class="name"></span>' +
+        CHOICES.map(([v]) => '<label><input type="radio" name="' + k + '" value="' + v + '"></label>').join("");
       row.querySelector(".name").textContent = name;
       row.querySelector(".name").title = def;
-      row.querySelectorAll("input").forEach((r) => r.setAttribute("aria-label", "Criterion " + (q + 1) + ", " + name + ": " + r.value));
+      row.querySelectorAll("input").forEach((r, x) => r.setAttribute("aria-label", "Criterion " + (q + 1) + ", " + name + ": " + CHOICES[x][1]));
       fs.appendChild(row);
       const li = document.createElement("li");
       li.innerHTML = "<strong></strong> ";
@@ -272,12 +482,13 @@
     $("form").addEventListener("change", (ev) => {
       const t = ev.target, a = ans();
       if (t.name && /^c[1-6]$/.test(t.name)) a[t.name] = t.value;
-      else if (t.name === "verdict") a.verdict = t.value;
+      else if (t.name === "verdict") { a.verdict = t.value; changed(false); return maybeAdvance(); }
       else if (t.name === "confidence") a.confidence = +t.value;
+      else if (t.id === "auto") st.auto = t.checked;
       changed(false);
     });
     $("comment").addEventListener("input", () => { ans().comment = $("comment").value; changed(false); });
-    $("conf-clear").addEventListener("click", () => { ans().confidence = null; changed(true); });
+    $("conf-clear").addEventListener("click", () => { ans().confidence = null; changed(false); });
     $("form").addEventListener("submit", (ev) => ev.preventDefault());
   }
 
@@ -290,43 +501,50 @@
     document.querySelectorAll('input[name="verdict"]').forEach((r) => (r.checked = r.value === a.verdict));
     document.querySelectorAll('input[name="confidence"]').forEach((r) => (r.checked = +r.value === a.confidence));
     if ($("comment").value !== a.comment) $("comment").value = a.comment;
+    $("auto").checked = !!st.auto;
     const s = $("item-state");
-    if (rated(a)) { s.textContent = "Rated \u2713"; s.className = "itemstate done"; }
-    else if (touched(a)) { s.textContent = "Incomplete: every criterion and the verdict are needed."; s.className = "itemstate todo"; }
+    if (rated(a)) { s.textContent = "Complete \u2713"; s.className = "itemstate done"; }
+    else if (touched(a)) { s.textContent = "Incomplete: not merged until all six and the verdict are answered."; s.className = "itemstate todo"; }
     else { s.textContent = "Not rated yet."; s.className = "itemstate"; }
   }
 
+  function countDone() { return D.items.filter((it) => rated(st.answers[it.code])).length; }
   function syncChrome() {
-    const done = D.items.filter((it) => rated(st.answers[it.code])).length;
-    $("progress").textContent = done + " / " + N + " rated";
+    const repeats = N - (D.events || N);
+    $("progress").textContent = countDone() + " of " + N + " items complete" + (repeats > 0 ? " (" + D.events + " events; " + repeats + " shown twice)" : "");
     $("item-code").textContent = cur().code;
     const j = $("jump");
     for (let i = 0; i < N; i++) {
       const a = st.answers[D.items[i].code];
-      const txt = (i + 1) + " of " + N + " \u00b7 " + D.items[i].code + (rated(a) ? " \u2713" : touched(a) ? " \u2026" : "");
+      const txt = (i + 1) + " of " + N + (rated(a) ? " \u2713" : touched(a) ? " \u2026" : "");
       if (j.options[i].text !== txt) j.options[i].text = txt;
     }
     j.value = String(st.index);
-    $("montage").value = String(st.montage);
-    $("sens").value = String(st.sens);
-    $("tb").value = String(st.tb);
+    for (const k of ["montage", "sens", "tb", "lff", "hff", "notch"]) $(k).value = String(st[k]);
+    noteSignal(cur());
   }
 
   function changed(redraw) {
     persist(); syncForm(); syncChrome();
-    if (redraw) draw();
+    if (redraw) later = draw().then(() => { caliperText(); syncPan(); });
   }
+  let later = Promise.resolve();
 
   function go(i) {
     if (i < 0 || i >= N || i === st.index) return;
-    st.index = i; persist(); syncForm(); syncChrome(); draw();
+    st.index = i; view.c = null; view.cal = null;
+    status(""); // a message about the last item or save must not linger here
+    persist(); syncForm(); syncChrome(); later = draw().then(() => { caliperText(); syncPan(); });
   }
   function nextOpen() {
     for (let d = 1; d <= N; d++) {
       const i = (st.index + d) % N;
       if (!rated(st.answers[D.items[i].code])) return go(i);
     }
-    status("Every item is rated. Save with s.");
+    status("Every item is complete. Save with s.");
+  }
+  function maybeAdvance() {
+    if (st.auto && rated(ans())) nextOpen();
   }
   function step(list, key, dir) {
     const k = list.indexOf(st[key]) + dir;
@@ -335,8 +553,7 @@
 
   // ---- save -----------------------------------------------------------------
   function save() {
-    const answers = [];
-    const open = [];
+    const answers = [], open = [];
     for (const it of D.items) {
       const a = st.answers[it.code];
       if (!touched(a)) continue;
@@ -350,87 +567,140 @@
     a.href = url; a.download = D.packet + ".json";
     document.body.appendChild(a); a.click(); a.remove();
     setTimeout(() => URL.revokeObjectURL(url), 10000);
-    if (open.length) status("Saved " + D.packet + ".json. Incomplete items that the coordinator will query: " + open.join(", "), true);
-    else status("Saved " + D.packet + ".json with " + answers.length + " rated item(s). Send this file back.");
+    const done = answers.length - open.length, owed = N - done;
+    if (open.length) status("Saved " + D.packet + ".json: " + done + " complete items will be merged. Incomplete, not merged and still owed (the coordinator sees these codes): " + open.join(", "), true);
+    else status("Saved " + D.packet + ".json: " + done + " complete items will be merged" + (owed ? "; " + owed + " not yet rated are still owed" : "") + ". Send this file back.");
   }
 
   // ---- keyboard -------------------------------------------------------------
-  function toggleCrit(q) {
+  function setCrit(q) {
     const a = ans(), k = "c" + q;
-    a[k] = a[k] === "present" ? "absent" : "present";
+    a[k] = a[k] === "present" ? "absent" : a[k] === "absent" ? CJ : "present";
     changed(false);
   }
+  function restAbsent() {
+    const a = ans();
+    for (const k of critKeys) if (!a[k]) a[k] = "absent";
+    changed(false);
+  }
+  function setVerdict(v) { ans().verdict = v; changed(false); maybeAdvance(); }
+  // keyOf names a key by what it prints, falling back to its position when
+  // the layout prints something else there (non-Latin letters) or nothing
+  // (dead keys), so every command is one key on every layout.
+  function keyOf(ev) {
+    const k = ev.key || "";
+    if (k.length === 1 && k.charCodeAt(0) < 128) return k;
+    if (k.length > 1 && k !== "Dead" && k !== "Unidentified" && k !== "Process") return k;
+    const c = ev.code || "";
+    let m = /^Key([A-Z])$/.exec(c);
+    if (m) return ev.shiftKey ? m[1] : m[1].toLowerCase();
+    m = { Comma: ",", Period: ".", Equal: "+", Minus: "-", NumpadAdd: "+", NumpadSubtract: "-", Slash: "?" }[c];
+    return m || k;
+  }
+  let confNext = false; // "c" was pressed: the next digit is the confidence
   function onKey(ev) {
-    if (ev.ctrlKey || ev.metaKey || ev.altKey) return;
+    if (ev.ctrlKey || ev.metaKey || ev.altKey) return; // AltGr arrives as Ctrl+Alt: its characters are for text
     const t = ev.target, tag = t && t.tagName;
     if (tag === "TEXTAREA" || (tag === "INPUT" && t.type === "text")) {
       if (ev.key === "Escape") { t.blur(); ev.preventDefault(); }
       return;
     }
+    const key = keyOf(ev);
     if (document.querySelector("dialog[open]")) {
-      if (ev.key === "?" || ev.key === "h" || ev.key === "c") { document.querySelectorAll("dialog[open]").forEach((d) => d.close()); ev.preventDefault(); }
+      if (key === "?" || key === "h" || key === "d") { document.querySelectorAll("dialog[open]").forEach((d) => d.close()); ev.preventDefault(); }
       return;
     }
     const inControl = tag === "INPUT" || tag === "SELECT";
+    // Digits are read by position (Digit1, Numpad1…), with or without Shift,
+    // so they work where the row prints other characters first (AZERTY).
     const m = /^(?:Digit|Numpad)([0-9])$/.exec(ev.code || "");
+    const conf = confNext;
+    confNext = false;
+    if (conf && !m) status("");
     if (m) {
       const q = +m[1];
-      if (ev.shiftKey && q >= 1 && q <= 5) { ans().confidence = q; changed(false); }
-      else if (q === 0) { ans().confidence = null; changed(false); }
-      else if (!ev.shiftKey && q >= 1 && q <= 6) toggleCrit(q);
+      if (conf && q <= 5) { ans().confidence = q || null; status(""); changed(false); }
+      else if (q >= 1 && q <= 6) setCrit(q);
       else return;
       ev.preventDefault();
       return;
     }
-    switch (ev.key) {
-      case "e": ans().verdict = "epileptiform"; changed(false); break;
-      case "n": ans().verdict = "not-epileptiform"; changed(false); break;
-      case "j": go(st.index + 1); break;
-      case "k": go(st.index - 1); break;
-      case "ArrowRight": if (inControl) return; go(st.index + 1); break;
-      case "ArrowLeft": if (inControl) return; go(st.index - 1); break;
+    switch (key) {
+      case "a": restAbsent(); break;
+      case "c": confNext = true; status("Confidence: press 1 (low) to 5 (high), or 0 to clear."); break;
+      case "e": setVerdict("epileptiform"); break;
+      case "n": setVerdict("not-epileptiform"); break;
+      case "x": setVerdict(CJ); break;
+      case "j": case "PageDown": go(st.index + 1); break;
+      case "k": case "PageUp": go(st.index - 1); break;
+      case "ArrowRight": if (inControl) return; pan(1); break;
+      case "ArrowLeft": if (inControl) return; pan(-1); break;
+      case "Home": if (inControl) return; view.c = null; redrawNow(); break;
       case "u": nextOpen(); break;
       case "m": st.montage = (st.montage + 1) % D.montages.length; changed(true); break;
       case "M": st.montage = (st.montage + D.montages.length - 1) % D.montages.length; changed(true); break;
-      case "+": case "=": step(SENS, "sens", -1); break;
-      case "-": case "_": step(SENS, "sens", +1); break;
-      case "]": step(TB, "tb", +1); break;
-      case "[": step(TB, "tb", -1); break;
+      case "+": case "=": case "ArrowUp": if (inControl && key === "ArrowUp") return; step(SENS, "sens", -1); break;
+      case "-": case "_": case "ArrowDown": if (inControl && key === "ArrowDown") return; step(SENS, "sens", +1); break;
+      case ".": case ">": step(TB, "tb", +1); break;
+      case ",": case "<": step(TB, "tb", -1); break;
+      case "f": toggleFilters(); break;
       case "t": $("comment").focus(); break;
-      case "c": $("criteria").showModal(); break;
+      case "d": $("criteria").showModal(); break;
       case "?": case "h": $("help").showModal(); break;
       case "s": save(); break;
       default: return;
     }
     ev.preventDefault();
   }
+  function toggleFilters() {
+    if (st.lff || st.hff || st.notch) { st.lff = 0; st.hff = 0; st.notch = 0; }
+    else { st.lff = F0.low; st.hff = F0.high; st.notch = F0.notch; }
+    changed(true);
+  }
 
   // ---- start ----------------------------------------------------------------
   function fill(sel, values, fmt) {
-    values.forEach((v, i) => { const o = document.createElement("option"); o.value = String(fmt ? i : v); o.textContent = fmt ? fmt(v) : String(v); sel.appendChild(o); });
+    values.forEach((v, i) => { const o = document.createElement("option"); o.value = String(fmt === true ? i : v); o.textContent = typeof fmt === "function" ? fmt(v) : String(v); sel.appendChild(o); });
   }
+  const hz = (v) => (v === 0 ? "off" : v + " Hz");
   $("packet-id").textContent = D.packet;
-  fill($("montage"), D.montages, (m) => m.name);
+  fill($("montage"), D.montages.map((m) => m.name), true);
   fill($("sens"), SENS);
   fill($("tb"), TB);
-  fill($("jump"), D.items, () => "");
+  fill($("lff"), LFF, hz);
+  fill($("hff"), HFF, hz);
+  fill($("notch"), NOTCH, hz);
+  fill($("jump"), D.items.map(() => ""), true);
   buildForm();
-  $("montage").addEventListener("change", (e) => { st.montage = +e.target.value; changed(true); });
-  $("sens").addEventListener("change", (e) => { st.sens = +e.target.value; changed(true); });
-  $("tb").addEventListener("change", (e) => { st.tb = +e.target.value; changed(true); });
+  for (const k of ["montage", "sens", "tb", "lff", "hff", "notch"]) $(k).addEventListener("change", (e) => { st[k] = +e.target.value; changed(true); });
   $("jump").addEventListener("change", (e) => go(+e.target.value));
   $("prev").addEventListener("click", () => go(st.index - 1));
   $("next").addEventListener("click", () => go(st.index + 1));
   $("next-open").addEventListener("click", nextOpen);
   $("btn-save").addEventListener("click", save);
+  $("btn-filters").addEventListener("click", toggleFilters);
   $("btn-help").addEventListener("click", () => $("help").showModal());
   $("btn-criteria").addEventListener("click", () => $("criteria").showModal());
-  $("btn-criteria2").addEventListener("click", () => $("criteria").showModal());
+  $("pan").addEventListener("input", (e) => { view.c = +e.target.value + (geo ? geo.span / 2 : 0); redrawNow(); });
+  const cv = $("traces");
+  cv.addEventListener("mousedown", calDown);
+  window.addEventListener("mousemove", calMove);
+  window.addEventListener("mouseup", calUp);
   document.addEventListener("keydown", onKey);
   let rz = 0;
-  window.addEventListener("resize", () => { clearTimeout(rz); rz = setTimeout(draw, 120); });
+  window.addEventListener("resize", () => { clearTimeout(rz); rz = setTimeout(redrawNow, 120); });
   if (typeof DecompressionStream === "undefined") status("This browser is too old to show the traces (it lacks DecompressionStream); please use a current browser.", true);
   syncForm(); syncChrome();
   // window.quorate lets a test or a curious rater inspect the page state.
-  window.quorate = { ready: draw().then(() => true), decode: (i) => decode(i).then((d) => d.chans.map((c) => Array.from(c))), state: () => JSON.parse(JSON.stringify(st)), save };
+  window.quorate = {
+    ready: draw().then(() => { caliperText(); syncPan(); return true; }),
+    decode: (i) => decode(i).then((d) => d.chans.map((c) => Array.from(c))),
+    state: () => JSON.parse(JSON.stringify(st)),
+    settled: () => later.then(() => true), // the last redraw has finished
+    caliper: () => (view.cal ? { ms: view.cal.ms, uv: view.cal.uv, row: view.cal.row, samples: view.cal.j1 - view.cal.j0 } : null),
+    // at gives the page position of time t (s from the excerpt's start) on row r.
+    at: (t, r) => { const b = $("traces").getBoundingClientRect(); return { x: b.left + xOf(geo, t), y: b.top + baseOf(geo, r) }; },
+    filter: (x, rate, lff, hff, notch) => Array.from(filtfilt(Float32Array.from(x), rate, { lff, hff, notch })),
+    save,
+  };
 })();
