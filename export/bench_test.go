@@ -84,7 +84,7 @@ func BenchmarkEpochs2000(b *testing.B) {
 				OnsetS: rng.Float64() * 1800}
 			o.Candidates = append(o.Candidates, c)
 			o.Draw = append(o.Draw, DrawInfo{EventID: c.EventID, Kind: "candidate", Stratum: "s", Pi: 1, Weight: 1, Phase: 1})
-			o.Consensus = append(o.Consensus, consensus.Event{EventID: c.EventID, Verdict: "present"})
+			o.Consensus = append(o.Consensus, consensus.Event{EventID: c.EventID, Verdict: "epileptiform"})
 		}
 	}
 	o.Format, o.Epochs, o.Replace = "parquet", true, true

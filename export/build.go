@@ -46,6 +46,19 @@ func decision(s string) *bool {
 	return nil
 }
 
+// verdict maps the consensus verdict column to the export's verdict word (the returns'
+// words: epileptiform, not-epileptiform; undetermined, no-quorum as written) and the
+// panel reference: epileptiform → true, not-epileptiform → false, otherwise null.
+// Consensus tables of an older release held present/absent there; they export in the
+// same words. An unknown word is kept as it is, with a null reference.
+func verdict(s string) (*string, *bool) {
+	d, ok := consensus.ParseVerdict(s)
+	if !ok {
+		return sptr(s), nil
+	}
+	return sptr(d.VerdictString()), decision(d.String())
+}
+
 // buildEvents joins the draw with the candidates, the consensus, the external
 // reference and the operating point: one row per drawn unit, ordered by subject,
 // recording, onset and id.
@@ -135,9 +148,9 @@ func fillConsensus(e *EventRow, c *consensus.Event) {
 	e.C5Present, e.C5Absent, e.C5Majority = ptr(c.C5Present), ptr(c.C5Absent), sptr(c.C5)
 	e.C6Present, e.C6Absent, e.C6Majority = ptr(c.C6Present), ptr(c.C6Absent), sptr(c.C6)
 	e.CriteriaPresent = ptr(c.CriteriaPresent)
-	e.VerdictYes, e.VerdictNo, e.Verdict = ptr(c.VerdictYes), ptr(c.VerdictNo), sptr(c.Verdict)
+	e.VerdictYes, e.VerdictNo = ptr(c.VerdictYes), ptr(c.VerdictNo)
+	e.Verdict, e.RefPanel = verdict(c.Verdict)
 	e.DSProbability = fptr(c.DSProbability)
-	e.RefPanel = decision(c.Verdict)
 	if e.DSProbability != nil {
 		// The Dawid–Skene label is the class of highest posterior probability (Dawid &
 		// Skene 1979); with two classes that is P(IED) ≥ 0.5, ties going to IED.

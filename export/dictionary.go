@@ -32,6 +32,13 @@ var majorityLevels = map[string]string{
 	"no-quorum":    "fewer answers than the study's quorum",
 }
 
+var verdictLevels = map[string]string{
+	"epileptiform":     "a strict majority of the raters who answered called the event epileptiform (or a tie under the tie policy 'present')",
+	"not-epileptiform": "a strict majority called it not epileptiform (or a tie under the study's tie policy 'absent')",
+	"undetermined":     "a tie under the tie policy 'undetermined'",
+	"no-quorum":        "fewer answers than the study's quorum",
+}
+
 func criterionName(c int) string {
 	return [...]string{"spiky morphology", "duration unlike the background", "asymmetric waveform",
 		"after-going slow wave", "disruption of the background", "field suggesting a cerebral dipolar source"}[c-1]
@@ -82,9 +89,9 @@ var eventDocs = func() map[string]doc {
 		"criteria_present":        {"", "Number of criteria whose panel majority is 'present' (0–6).", nil},
 		"epileptiform_votes":      {"", "Raters who called the event epileptiform (an IED).", nil},
 		"not_epileptiform_votes":  {"", "Raters who called the event not epileptiform.", nil},
-		"verdict":                 {"", "Panel majority on 'epileptiform?', a decision in the vocabulary of the criterion columns: 'present' = the majority answered epileptiform, 'absent' = not-epileptiform (returns spell the answers epileptiform / not-epileptiform; cannot-judge answers count toward neither side nor the quorum).", majorityLevels},
+		"verdict":                 {"", "Panel majority on 'epileptiform?', in the words of the returns (cannot-judge answers count toward neither side nor the quorum).", verdictLevels},
 		"ds_probability":          {"", "Dawid–Skene posterior probability that the event is an IED (Dawid & Skene 1979, Applied Statistics 28:20–28); null when the model was not fitted.", nil},
-		"ref_panel":               {"", "Reference label from the panel: verdict 'present' → true, 'absent' → false, otherwise null.", nil},
+		"ref_panel":               {"", "Reference label from the panel: verdict 'epileptiform' → true, 'not-epileptiform' → false, otherwise null.", nil},
 		"ref_dawid_skene":         {"", "Reference label from the Dawid–Skene model: ds_probability ≥ 0.5; null when not fitted.", nil},
 		"ref_external":            {"", "Reference label from an external standard (e.g. the patient's later diagnosis), when given; otherwise null.", nil},
 		"op_decision":             {"", "Decision of the tuned operating point (see the dictionary's header for its rule); null when no operating point was given.", nil},

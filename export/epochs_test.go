@@ -164,7 +164,7 @@ func TestEpochsDiscontinuous(t *testing.T) {
 		Recordings: []archive.Recording{{RecordingID: "rec-d", SubjectKey: "sub-d", Path: "d.edf", Format: "EDF+D", StartTime: start}},
 		Candidates: []candidate.Row{{EventID: "ev-d", RecordingID: "rec-d", SubjectKey: "sub-d", OnsetS: 21}},
 		Draw:       []DrawInfo{{EventID: "ev-d", Kind: "candidate", Stratum: "s", Pi: 1, Weight: 1, Phase: 1}},
-		Consensus:  []consensus.Event{{EventID: "ev-d", Verdict: "present"}}}
+		Consensus:  []consensus.Event{{EventID: "ev-d", Verdict: "epileptiform"}}}
 	dir, _ := runExport(t, o, "parquet", true)
 	rows := readParquet[EpochRow](t, filepath.Join(dir, EpochsFile))
 	if len(rows) != 19 {

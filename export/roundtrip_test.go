@@ -93,7 +93,7 @@ func checkAgainstSource(t *testing.T, o *Options, got []EventRow) {
 		if *e.C3Present != c.C3Present || *e.C3Absent != c.C3Absent || *e.C6Majority != c.C6 || *e.Verdict != c.Verdict {
 			t.Errorf("%s: votes differ from the consensus table", c.EventID)
 		}
-		wantPanel := map[string]*bool{"present": ptr(true), "absent": ptr(false)}[c.Verdict]
+		wantPanel := map[string]*bool{"epileptiform": ptr(true), "not-epileptiform": ptr(false)}[c.Verdict]
 		if !reflect.DeepEqual(e.RefPanel, wantPanel) {
 			t.Errorf("%s ref_panel %v for verdict %s", c.EventID, e.RefPanel, c.Verdict)
 		}

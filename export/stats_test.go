@@ -118,12 +118,12 @@ func TestStatisticsFromExport(t *testing.T) {
 	var sw []float64
 	for _, c := range cands {
 		v := verdict[c.EventID]
-		if v != "present" && v != "absent" {
+		if v != "epileptiform" && v != "not-epileptiform" { // the returns' words (FORMAT.md)
 			continue
 		}
 		m := c.Met()
 		scrit = append(scrit, m[:])
-		struth = append(struth, v == "present")
+		struth = append(struth, v == "epileptiform")
 		sw = append(sw, weight[c.EventID])
 	}
 	got, want := accuracy.KSweep(crit, truth, w), accuracy.KSweep(scrit, struth, sw)

@@ -10,16 +10,20 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+
+	"github.com/quorate-eeg/quorate/panel/consensus"
 )
 
-// ReferenceFromPanel maps the panel's overall verdict (the strings of
-// consensus.Decision) to a reference: "present" is an IED (1), "absent" is
-// not (0), and a tie left undetermined or a missing quorum is unknown (−1).
+// ReferenceFromPanel maps the panel's overall verdict (consensus.parquet's
+// verdict column, read by consensus.ParseVerdict) to a reference:
+// "epileptiform" is an IED (1), "not-epileptiform" is not (0), and a tie left
+// undetermined or a missing quorum is unknown (−1).
 func ReferenceFromPanel(verdict string) int8 {
-	switch verdict {
-	case "present":
+	d, ok := consensus.ParseVerdict(verdict)
+	switch {
+	case ok && d == consensus.Present:
 		return 1
-	case "absent":
+	case ok && d == consensus.Absent:
 		return 0
 	}
 	return -1

@@ -63,8 +63,10 @@ func TestReadExternalReferenceErrors(t *testing.T) {
 }
 
 func TestReferenceMaps(t *testing.T) {
-	// consensus.Decision strings; Bayes rule at ½ (Dawid & Skene 1979).
-	for v, want := range map[string]int8{"present": 1, "absent": 0, "undetermined": -1, "no-quorum": -1} {
+	// The verdict column's words (consensus.VerdictString), and the present/absent of
+	// consensus tables written by an older release; Bayes rule at ½ (Dawid & Skene 1979).
+	for v, want := range map[string]int8{"epileptiform": 1, "not-epileptiform": 0, "present": 1, "absent": 0,
+		"undetermined": -1, "no-quorum": -1, "cannot-judge": -1, "": -1} {
 		if got := ReferenceFromPanel(v); got != want {
 			t.Errorf("ReferenceFromPanel(%q) = %d, want %d", v, got, want)
 		}

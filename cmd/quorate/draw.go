@@ -10,6 +10,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/panel/consensus"
 	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/candidate"
@@ -199,7 +200,8 @@ func phaseEstimates(s *study.Study) (map[string]draw.PhaseEstimate, error) {
 	by := map[string]*acc{}
 	for _, e := range cons {
 		h, ok := stratum[e.EventID]
-		if !ok || (e.Verdict != "present" && e.Verdict != "absent") {
+		v, decided := consensus.ParseVerdict(e.Verdict)
+		if !ok || !decided || (v != consensus.Present && v != consensus.Absent) {
 			continue
 		}
 		a := by[h]
@@ -208,7 +210,7 @@ func phaseEstimates(s *study.Study) (map[string]draw.PhaseEstimate, error) {
 			by[h] = a
 		}
 		a.n++
-		if e.Verdict == "present" {
+		if v == consensus.Present {
 			a.yes++
 		}
 		if e.VerdictYes > 0 && e.VerdictNo > 0 {

@@ -53,7 +53,7 @@ type Event struct {
 	CriteriaPresent int32   `parquet:"criteria_present"` // criteria whose majority is present
 	VerdictYes      int32   `parquet:"epileptiform_votes"`
 	VerdictNo       int32   `parquet:"not_epileptiform_votes"`
-	Verdict         string  `parquet:"verdict,dict"`   // present = epileptiform
+	Verdict         string  `parquet:"verdict,dict"`   // epileptiform, not-epileptiform, undetermined or no-quorum (VerdictString)
 	DSProbability   float64 `parquet:"ds_probability"` // Dawid–Skene P(IED), NaN if not fitted
 }
 
@@ -124,7 +124,7 @@ func Build(ratings []Rating, quorum int, tie TiePolicy) []Event {
 				e.CriteriaPresent++
 			}
 		}
-		e.VerdictYes, e.VerdictNo, e.Verdict = int32(t.present[6]), int32(t.absent[6]), dec[6].String()
+		e.VerdictYes, e.VerdictNo, e.Verdict = int32(t.present[6]), int32(t.absent[6]), dec[6].VerdictString()
 		e.DSProbability = math.NaN()
 		out[i] = e
 	}

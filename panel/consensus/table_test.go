@@ -28,7 +28,7 @@ func TestBuildCountsVotesAndSkipsDuplicates(t *testing.T) {
 	if e.Decisions() != want {
 		t.Errorf("decisions %v, want %v", e.Decisions(), want)
 	}
-	if e.C1Present != 2 || e.C1Absent != 1 || e.CriteriaPresent != 3 || e.Verdict != "present" || e.VerdictYes != 2 {
+	if e.C1Present != 2 || e.C1Absent != 1 || e.CriteriaPresent != 3 || e.Verdict != "epileptiform" || e.VerdictYes != 2 {
 		t.Errorf("tallies %+v", e)
 	}
 	e2 := ev[1]

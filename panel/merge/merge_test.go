@@ -109,7 +109,7 @@ func TestMergeStoresSupersedesAndRefuses(t *testing.T) {
 	if err != nil || len(evs) != 4 {
 		t.Fatalf("consensus: %v, %d events", err, len(evs))
 	}
-	if evs[0].Verdict != "present" || evs[0].VerdictYes != 2 || evs[2].Verdict != "absent" {
+	if evs[0].Verdict != "epileptiform" || evs[0].VerdictYes != 2 || evs[2].Verdict != "not-epileptiform" {
 		t.Errorf("consensus %+v", evs[0])
 	}
 	rs, _ := ReadRatings(filepath.Join(o.ConsensusDir, RatingsFile))
@@ -144,7 +144,7 @@ func TestMergeStoresSupersedesAndRefuses(t *testing.T) {
 	}
 	evs, _ = ReadConsensus(filepath.Join(o.ConsensusDir, ConsensusFile))
 	// ana now says no to everything, ben yes on event 0: a tie counts as absent.
-	if evs[0].Verdict != "absent" || evs[0].VerdictYes != 1 || evs[0].VerdictNo != 1 {
+	if evs[0].Verdict != "not-epileptiform" || evs[0].VerdictYes != 1 || evs[0].VerdictNo != 1 {
 		t.Errorf("after supersede: %+v", evs[0])
 	}
 	st, _ = GetStatus(m, key, o.ReturnsDir, o.ConsensusDir)
