@@ -50,6 +50,9 @@ svg{max-width:100%;height:auto}
 <h1>Detector tuning report</h1>
 <p class="explain">Study {{.Meta.StudyID}} · quorate {{.Meta.Version}} · generated {{.Generated}}</p>
 <p class="caution">{{.Caution}}</p>
+{{if .Res.Warnings}}<h2>Warnings</h2>
+<p class="explain">Read these before the figures: they say where the reference standard or the sample is weaker than the figures look.</p>
+<ul>{{range .Res.Warnings}}<li class="warn">{{.}}</li>{{end}}</ul>{{end}}
 
 <h2>The chosen operating point</h2>
 <div class="rule">
@@ -120,9 +123,6 @@ svg{max-width:100%;height:auto}
 <tr><th>Question</th><th>Events</th><th>Observed agreement</th><th>Fleiss' kappa</th><th>Gwet's AC1</th><th>Krippendorff's alpha</th></tr>
 {{range .Agreement}}<tr>{{range .}}<td>{{.}}</td>{{end}}</tr>
 {{end}}</table>{{end}}
-
-{{if .Res.Warnings}}<h2>Warnings</h2>
-<ul>{{range .Res.Warnings}}<li class="warn">{{.}}</li>{{end}}</ul>{{end}}
 
 {{if .Meta.InputHashes}}<h2>Inputs</h2>
 <table><tr><th>File</th><th>SHA-256</th></tr>{{range $k, $v := .Meta.InputHashes}}<tr><td>{{$k}}</td><td><code>{{$v}}</code></td></tr>{{end}}</table>{{end}}

@@ -26,6 +26,16 @@ func writeMarkdown(w io.Writer, res *tuning.Result, agr *consensus.Agreement, me
 	v := newView(res, agr, meta)
 	fmt.Fprintf(w, "# Detector tuning report\n\nStudy %s · quorate %s · generated %s\n\n", meta.StudyID, meta.Version, v.Generated)
 	fmt.Fprintf(w, "> **%s**\n\n", Caution)
+	if len(res.Warnings) > 0 {
+		// Warnings come before the figures: they say where the reference standard or
+		// the sample is weaker than the figures look.
+		fmt.Fprintln(w, "## Warnings")
+		fmt.Fprintln(w)
+		for _, s := range res.Warnings {
+			fmt.Fprintf(w, "- %s\n", s)
+		}
+		fmt.Fprintln(w)
+	}
 	fmt.Fprintf(w, "## The chosen operating point\n\nAn event is marked when %s.\n\n", res.Final.Rule)
 	fmt.Fprintf(w, "Chosen by the policy `%s` on the design-weighted figures. Reference standard: %s. %d events from %d subjects (%d IEDs); %d left out without a reference. Intervals at %.0f%%.\n\n",
 		v.Policy, res.Final.Reference, res.Events, res.Subjects, res.Positives, res.Excluded, 100*res.Level)
@@ -70,13 +80,5 @@ func writeMarkdown(w io.Writer, res *tuning.Result, agr *consensus.Agreement, me
 		fmt.Fprintln(w, "## Panel agreement")
 		fmt.Fprintln(w)
 		mdTable(w, []string{"Question", "Events", "Observed agreement", "Fleiss' kappa", "Gwet's AC1", "Krippendorff's alpha"}, v.Agreement)
-	}
-	if len(res.Warnings) > 0 {
-		fmt.Fprintln(w, "## Warnings")
-		fmt.Fprintln(w)
-		for _, s := range res.Warnings {
-			fmt.Fprintf(w, "- %s\n", s)
-		}
-		fmt.Fprintln(w)
 	}
 }

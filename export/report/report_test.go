@@ -227,3 +227,34 @@ func TestOperatingPointDecide(t *testing.T) {
 		t.Error("a point without cutoffs claimed a decision")
 	}
 }
+
+// The panel's warnings (outstanding packets, events without the quorum, slight verdict
+// agreement: merge.Readiness) stand in both reports before the operating point.
+func TestWarningsLeadTheReport(t *testing.T) {
+	res := result(t)
+	res.Warnings = append([]string{"2 of 3 packets are outstanding (7 items owed): the reference rests on part of the panel",
+		"the panel's verdict agreement is slight (Fleiss' kappa 0.15): the reference standard is weak"}, res.Warnings...)
+	dir := t.TempDir()
+	if err := Write(dir, res, agreementFixture(), Meta{StudyID: "demo"}); err != nil {
+		t.Fatal(err)
+	}
+	for _, name := range []string{HTMLFile, MarkdownFile} {
+		b, err := os.ReadFile(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		s := string(b)
+		op := strings.Index(s, "The chosen operating point")
+		for _, w := range res.Warnings[:2] {
+			if name == HTMLFile {
+				w = strings.ReplaceAll(w, "'", "&#39;") // html/template's escape of '
+			}
+			if i := strings.Index(s, w); i < 0 || i > op {
+				t.Errorf("%s: warning %q at %d, operating point at %d", name, w, i, op)
+			}
+		}
+	}
+	if b, _ := os.ReadFile(filepath.Join(dir, HTMLFile)); strings.Count(string(b), "<h2>Warnings</h2>") != 1 {
+		t.Error("report.html: want one Warnings section")
+	}
+}
