@@ -331,6 +331,24 @@ func TestReviewPageInBrowser(t *testing.T) {
 	if s := eval("document.getElementById('status').textContent").(string); s != "" {
 		t.Errorf("save message lingers on the next item: %q", s)
 	}
+	// Keyboard layouts. AltGr types characters, not commands: AltGr+5 is "["
+	// on AZERTY, as Ctrl+Alt (Windows) or AltGraph (X11); neither may set
+	// criterion 5. On a Cyrillic layout j prints "о" and still moves on (the
+	// key's position, KeyboardEvent.code, UI Events KeyboardEvent code values).
+	idx := eval("window.quorate.state().index").(float64)
+	before := eval("JSON.stringify(window.quorate.state().answers)").(string)
+	for _, init := range []string{`{key: "[", code: "Digit5", ctrlKey: true, altKey: true}`, `{key: "[", code: "Digit5", modifierAltGraph: true}`} {
+		eval(`document.dispatchEvent(new KeyboardEvent("keydown", Object.assign(` + init + `, {bubbles: true})))`)
+		eval("window.quorate.settled()")
+		if after := eval("JSON.stringify(window.quorate.state().answers)").(string); after != before {
+			t.Errorf("AltGr key %s changed the answers", init)
+		}
+	}
+	eval(`document.dispatchEvent(new KeyboardEvent("keydown", {key: "о", code: "KeyJ", bubbles: true}))`)
+	eval("window.quorate.settled()")
+	if got := eval("window.quorate.state().index").(float64); got != idx+1 {
+		t.Errorf("Cyrillic j (о at KeyJ): index %v, want %v", got, idx+1)
+	}
 	// At 15 mm/s the time and voltage bars keep their labels apart (see
 	// review-1920x1080.png).
 	keys(",", ",", ",", ",", ",", ",")

@@ -599,7 +599,10 @@
   }
   let confNext = false; // "c" was pressed: the next digit is the confidence
   function onKey(ev) {
-    if (ev.ctrlKey || ev.metaKey || ev.altKey) return; // AltGr arrives as Ctrl+Alt: its characters are for text
+    // AltGr arrives as Ctrl+Alt (Windows) or as the AltGraph modifier (X11,
+    // macOS Option): its characters are for text, never commands, so that
+    // AltGr+5 ("[" on AZERTY) does not set criterion 5. No command needs it.
+    if (ev.ctrlKey || ev.metaKey || ev.altKey || (ev.getModifierState && ev.getModifierState("AltGraph"))) return;
     const t = ev.target, tag = t && t.tagName;
     if (tag === "TEXTAREA" || (tag === "INPUT" && t.type === "text")) {
       if (ev.key === "Escape") { t.blur(); ev.preventDefault(); }
