@@ -6,6 +6,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"github.com/quorate-eeg/quorate/panel/packet"
 )
 
 // sheetAs writes the sheet as sent out with two rows filled, the way a
@@ -158,5 +160,45 @@ func TestSizeCap(t *testing.T) {
 	ps := problems(t, mustFail(Parse("big.json", big, fixture.m)))
 	if len(ps) != 1 || !strings.Contains(ps[0].Want, "at most") {
 		t.Errorf("%v", ps)
+	}
+}
+
+// The sheet sent out lists the allowed values in its comment lines, and every value it
+// lists is accepted, each meaning what the line says.
+func TestSheetListsAcceptedValues(t *testing.T) {
+	for _, l := range packet.SheetHelp {
+		if !bytes.Contains(fixture.sheet, []byte("# "+l+"\r\n")) {
+			t.Errorf("sheet.csv lacks the comment line %q", l)
+		}
+	}
+	crit := map[string]Presence{"present": Present, "p": Present, "yes": Present, "y": Present, "1": Present,
+		"absent": Absent, "a": Absent, "no": Absent, "n": Absent, "0": Absent, "cannot-judge": CannotJudge, "cj": CannotJudge, "?": CannotJudge}
+	verd := map[string]Verdict{"epileptiform": Epileptiform, "e": Epileptiform, "not-epileptiform": NotEpileptiform,
+		"ne": NotEpileptiform, "n": NotEpileptiform, "cannot-judge": VerdictCannotJudge, "cj": VerdictCannotJudge, "?": VerdictCannotJudge}
+	listed := func(line, v string) bool {
+		for _, w := range strings.FieldsFunc(line, func(r rune) bool { return r == ' ' || r == '(' || r == ')' || r == '/' || r == ':' }) {
+			if w == v {
+				return true
+			}
+		}
+		return false
+	}
+	for v, want := range crit {
+		if !listed(packet.SheetHelp[0], v) {
+			t.Errorf("criterion value %q not listed in %q", v, packet.SheetHelp[0])
+		}
+		r, err := Parse("sheet.csv", sheetAs(t, ',', true, false, nil, cells(v, "e"), nil), fixture.m)
+		if err != nil || r.Answers[0].Criteria[0] != want {
+			t.Errorf("criterion value %q: %v, want %s", v, err, want)
+		}
+	}
+	for v, want := range verd {
+		if !listed(packet.SheetHelp[1], v) {
+			t.Errorf("verdict value %q not listed in %q", v, packet.SheetHelp[1])
+		}
+		r, err := Parse("sheet.csv", sheetAs(t, ',', true, false, nil, cells("p", v), nil), fixture.m)
+		if err != nil || r.Answers[0].Verdict != want {
+			t.Errorf("verdict value %q: %v, want %s", v, err, want)
+		}
 	}
 }
