@@ -65,10 +65,18 @@ func TestAUCHanleyMcNeil(t *testing.T) {
 	tpr, fpr, _ := ROC(s, tr, nil)
 	// Hanley & McNeil (1982) Table 2: trapezoidal area 0.893 (from memory);
 	// pROC 1.18 auc() on the same table: 0.893171061528059
-	// (testdata/delong_proc.R).
+	// (testdata/delong_proc.R); sklearn.metrics.roc_auc_score and
+	// scipy.stats.mannwhitneyu U/(mn) agree (testdata/reference.py).
 	got := AUC(tpr, fpr)
 	if !near(got, 0.893171061528059, 1e-12) {
 		t.Errorf("AUC = %v, want pROC 0.893171061528059", got)
+	}
+	ref := readLibRef(t)
+	if !near(got, ref.HanleyMcNeil.ROCAUCScore, 1e-12) || !near(got, ref.HanleyMcNeil.MannWhitneyAUC, 1e-12) {
+		t.Errorf("AUC = %v, want roc_auc_score %v, Mann–Whitney %v", got, ref.HanleyMcNeil.ROCAUCScore, ref.HanleyMcNeil.MannWhitneyAUC)
+	}
+	if !near(got, 0.893, 5e-4) {
+		t.Errorf("AUC = %v, want published 0.893", got)
 	}
 	// Hanley & McNeil (1982): SE(0.893) with 51 abnormal, 58 normal is
 	// 0.032 (from memory); the formula gives 0.0325, so the published
