@@ -23,6 +23,7 @@ type libRef struct {
 	HanleyMcNeil struct {
 		ROCAUCScore    float64 `json:"roc_auc_score"`
 		MannWhitneyAUC float64 `json:"mannwhitney_auc"`
+		SENumpy        float64 `json:"se_numpy"`
 	} `json:"hanley_mcneil"`
 }
 

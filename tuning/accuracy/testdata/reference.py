@@ -13,7 +13,11 @@ Run from this directory: /usr/bin/python3 reference.py > reference.json
   .proportion_ci(0.95, method="wilson" / "wilsoncc") and
   statsmodels.stats.proportion.proportion_confint(method="wilson").
 - Hanley & McNeil (1982) rating table: sklearn.metrics.roc_auc_score and
-  scipy.stats.mannwhitneyu U / (m n) (the Wilcoxon area).
+  scipy.stats.mannwhitneyu U / (m n) (the Wilcoxon area). No general library
+  has the Hanley & McNeil (1982) standard error, so it is written out here
+  with numpy from the paper's formula, Q1 = A/(2-A), Q2 = 2A^2/(1+A),
+  SE^2 = (A(1-A) + (nA-1)(Q1-A^2) + (nN-1)(Q2-A^2)) / (nA nN), at the
+  printed A = 0.893 with 51 abnormal and 58 normal images.
 """
 import json
 
@@ -58,4 +62,8 @@ out["hanley_mcneil"] = {
     "roc_auc_score": metrics.roc_auc_score(truth, scores),
     "mannwhitney_auc": u / (len(s0) * len(s1)),
 }
+A, nA, nN = 0.893, 51, 58
+q1, q2 = A / (2 - A), 2 * A * A / (1 + A)
+out["hanley_mcneil"]["se_numpy"] = float(np.sqrt(
+    (A * (1 - A) + (nA - 1) * (q1 - A * A) + (nN - 1) * (q2 - A * A)) / (nA * nN)))
 print(json.dumps(out, indent=1))
