@@ -6,6 +6,7 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"errors"
+	"fmt"
 	"io/fs"
 	"math/rand/v2"
 	"os"
@@ -13,6 +14,7 @@ import (
 	"path/filepath"
 	"slices"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 
@@ -25,18 +27,35 @@ import (
 // tune and export, then checks that the study is of one piece. QUORATE_KILLTEST=1
 // makes many more tries (about 2 minutes); the default makes a few.
 
-// buildQuorate builds this command into a temporary folder.
+var (
+	binOnce sync.Once
+	binPath string
+	binErr  error
+)
+
+// buildQuorate builds this command once per test binary, into a temporary folder
+// that TestMain removes with the demo study's.
 func buildQuorate(t *testing.T) string {
 	t.Helper()
 	goBin, err := exec.LookPath("go")
 	if err != nil {
 		t.Skip("no go toolchain on PATH to build the binary")
 	}
-	bin := filepath.Join(t.TempDir(), "quorate")
-	if out, err := exec.Command(goBin, "build", "-o", bin, ".").CombinedOutput(); err != nil {
-		t.Fatalf("go build: %v\n%s", err, out)
+	binOnce.Do(func() {
+		dir, err := os.MkdirTemp("", "quorate-kill-bin-")
+		if err != nil {
+			binErr = err
+			return
+		}
+		binPath = filepath.Join(dir, "quorate")
+		if out, err := exec.Command(goBin, "build", "-o", binPath, ".").CombinedOutput(); err != nil {
+			binErr = fmt.Errorf("go build: %v\n%s", err, out)
+		}
+	})
+	if binErr != nil {
+		t.Fatal(binErr)
 	}
-	return bin
+	return binPath
 }
 
 // runBin runs the binary to the end and returns its exit code and combined output.
@@ -90,6 +109,25 @@ func killAfter(t *testing.T, bin string, trigger func() bool, d time.Duration, a
 		cmd.Process.Kill() // SIGKILL on Unix
 		<-done
 		return true, 0
+	}
+}
+
+// allIn returns a trigger that is true once a folder matching pattern holds all names.
+func allIn(pattern string, names ...string) func() bool {
+	return func() bool {
+		ds, _ := filepath.Glob(pattern)
+		for _, d := range ds {
+			n := 0
+			for _, name := range names {
+				if _, err := os.Lstat(filepath.Join(d, name)); err == nil {
+					n++
+				}
+			}
+			if n == len(names) {
+				return true
+			}
+		}
+		return false
 	}
 }
 
@@ -200,9 +238,9 @@ func checkWhole(t *testing.T, bin, st string) string {
 
 func killTries() int {
 	if os.Getenv("QUORATE_KILLTEST") == "1" {
-		return 40
+		return 45
 	}
-	return 4
+	return 6
 }
 
 // kill -9 in tune once left a new operating-point.json beside an old report; the report
@@ -215,19 +253,35 @@ func TestKillTune(t *testing.T) {
 	full := timed(t, bin, "--study", st, "tune", "--seed", "1")
 	oldGen, oldHash := tuningGeneration(t, st)
 	rng := rand.New(rand.NewPCG(18, 1))
-	killed, kept, unrecorded, wasStale := 0, 0, 0, false
+	killed, kept, unrecorded, between, wasStale := 0, 0, 0, 0, false
 	for i := range killTries() {
 		nextSecond()
-		// Even tries: at a random moment of the run; odd tries: within 100 ms of
-		// the moment the new report folder is made (it is renamed into place some
-		// 40–70 ms later on a demo study).
+		// Tries in turn: at a random moment of the run; within 100 ms of the
+		// moment the new report folder is made (it is renamed into place some
+		// 40–70 ms later on a demo study); within 3 ms of the moment all four
+		// files are in it, about when the old folder is moved aside.
 		d, trigger := time.Duration(rng.Float64()*float64(full)), func() bool { return true }
-		if i%2 == 1 {
+		switch i % 3 {
+		case 1:
 			d, trigger = time.Duration(rng.Float64()*float64(100*time.Millisecond)), appears(filepath.Join(st, "."+study.TuningDir+".tmp-*"))
+		case 2:
+			d, trigger = time.Duration(rng.Float64()*float64(3*time.Millisecond)), allIn(filepath.Join(st, "."+study.TuningDir+".tmp-*"),
+				report.PointFile, report.HTMLFile, report.MarkdownFile, report.SweepFile)
 		}
 		wasKilled, took := killAfter(t, bin, trigger, d, "--study", st, "tune", "--seed", string(rune('2'+i%8)))
 		if !wasKilled {
 			full = min(full, took) // aim the next kill within the run
+		}
+		// Killed between WriteDir's two renames: no tuning/ for the moment, the
+		// old folder aside; the next writer puts it back.
+		if _, err := os.Stat(filepath.Join(st, study.TuningDir)); errors.Is(err, fs.ErrNotExist) {
+			between++
+			if m, _ := filepath.Glob(filepath.Join(st, "."+study.TuningDir+".aside.tmp-*")); len(m) != 1 {
+				t.Fatalf("try %d: no tuning/ and %d folders aside", i, len(m))
+			}
+			if code, out := runBin(t, bin, "--study", st, "status"); code != 0 {
+				t.Fatalf("status after kill: exit %d\n%s", code, out)
+			}
 		}
 		gen, h := tuningGeneration(t, st)
 		switch {
@@ -265,7 +319,8 @@ func TestKillTune(t *testing.T) {
 			t.Fatalf("try %d: leftovers after the next command: %v", i, l)
 		}
 	}
-	t.Logf("%d of %d runs killed, %d left the old tuning, %d a new one not yet in provenance.jsonl", killed, killTries(), kept, unrecorded)
+	t.Logf("%d of %d runs killed, %d left the old tuning (%d of them between the two renames), %d a new one not yet in provenance.jsonl",
+		killed, killTries(), kept, between, unrecorded)
 	if code, out := runBin(t, bin, "--study", st, "tune"); code != 0 {
 		t.Fatalf("tune after the kills: exit %d\n%s", code, out)
 	}
@@ -315,11 +370,15 @@ func TestKillExport(t *testing.T) {
 	rng := rand.New(rand.NewPCG(18, 2))
 	killed, absent := 0, 0
 	for i := range killTries() {
-		// Even tries: at a random moment of the run; odd tries: within 100 ms of
-		// the moment the staging folder is made.
+		// Tries in turn: at a random moment of the run; within 100 ms of the
+		// moment the staging folder is made; within 3 ms of the moment its
+		// marker is written, just before the earlier export is moved aside.
 		d, trigger := time.Duration(rng.Float64()*float64(full)), func() bool { return true }
-		if i%2 == 1 {
+		switch i % 3 {
+		case 1:
 			d, trigger = time.Duration(rng.Float64()*float64(100*time.Millisecond)), appears(filepath.Join(parent, ".export.tmp-*"))
+		case 2:
+			d, trigger = time.Duration(rng.Float64()*float64(3*time.Millisecond)), appears(filepath.Join(parent, ".export.tmp-*", export.MarkerFile))
 		}
 		wasKilled, took := killAfter(t, bin, trigger, d, "--study", st, "export", "--to", target, "--replace")
 		if wasKilled {
