@@ -63,8 +63,8 @@ func close(a, b, abs, rel float64) bool {
 func TestButterworthPolynomialHandbook(t *testing.T) {
 	// Normalised Butterworth polynomials to 4 decimals, highest power first.
 	// Williams & Taylor, Electronic Filter Design Handbook (4th ed., 2006),
-	// Table 11-1 "Butterworth polynomials"; the four-decimal table from
-	// memory. The same coefficients at full precision come from
+	// Table 11-1 "Butterworth polynomials"; the four-decimal table is
+	// from memory. The same coefficients at full precision come from
 	// scipy.signal.buttap + numpy.poly (testdata/gen_scipy.py) in
 	// TestButterworthPolynomialScipy.
 	table := [][]float64{
