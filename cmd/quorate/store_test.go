@@ -201,6 +201,9 @@ func TestMain(m *testing.M) {
 	if demoDir != "" {
 		os.RemoveAll(filepath.Dir(demoDir))
 	}
+	if binPath != "" {
+		os.RemoveAll(filepath.Dir(binPath))
+	}
 	os.Exit(code)
 }
 

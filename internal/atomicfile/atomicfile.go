@@ -109,14 +109,30 @@ func isLeftover(name string) bool {
 	return true
 }
 
+// asideTag marks the folder WriteDir moves the old folder to just before it renames
+// the new one into place: ".NAME" + asideTag + "DIGITS".
+const asideTag = ".aside.tmp-"
+
 // RemoveLeftovers removes, under root, the temporary files and folders that a writer
-// killed before its rename left behind, and returns their paths. Run it only while no
-// other writer works under root (under the study's lock).
+// killed before its rename left behind, and returns their paths. A folder that
+// WriteDir had moved aside when it was killed, before the new folder took its place,
+// is renamed back instead, so that a kill at that instant leaves the old folder rather
+// than none. Run it only while no other writer works under root (under the study's
+// lock).
 func RemoveLeftovers(root string) ([]string, error) {
 	var gone []string
 	err := filepath.WalkDir(root, func(p string, d os.DirEntry, err error) error {
 		if err != nil {
 			return nil // an unreadable folder holds nothing this package wrote
+		}
+		if i := strings.LastIndex(d.Name(), asideTag); d.IsDir() && i > 1 && isLeftover(d.Name()) {
+			orig := filepath.Join(filepath.Dir(p), d.Name()[1:i])
+			if _, err := os.Lstat(orig); errors.Is(err, fs.ErrNotExist) {
+				if err := os.Rename(p, orig); err != nil {
+					return err
+				}
+				return filepath.SkipDir
+			}
 		}
 		if p != root && isLeftover(d.Name()) {
 			if err := os.RemoveAll(p); err != nil {
@@ -133,7 +149,8 @@ func RemoveLeftovers(root string) ([]string, error) {
 }
 
 // WriteDir replaces the folder dir with one that fn fills, so that a reader sees the
-// old folder or the whole new one (or, for the instant between two renames, none),
+// old folder or the whole new one (or, for the instant between two renames, none: a
+// run killed then leaves the old folder aside, and RemoveLeftovers puts it back),
 // never a mix of old and new files. fn writes into the folder it is given. Files of the
 // old folder that fn does not write are carried over.
 func WriteDir(dir string, fn func(tmp string) error) (err error) {
@@ -174,7 +191,7 @@ func WriteDir(dir string, fn func(tmp string) error) (err error) {
 			}
 		}
 	}
-	aside, err := os.MkdirTemp(parent, "."+base+".tmp-")
+	aside, err := os.MkdirTemp(parent, "."+base+asideTag)
 	if err != nil {
 		return err
 	}

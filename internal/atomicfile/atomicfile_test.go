@@ -116,3 +116,37 @@ func TestRemoveLeftovers(t *testing.T) {
 		}
 	}
 }
+
+// A WriteDir killed between its two renames (old folder moved aside, new one not yet in
+// place) once left only two ".tuning.tmp-N" folders, and the next command's
+// RemoveLeftovers deleted both: no report at all. The aside folder is now put back.
+func TestRemoveLeftoversRestoresAside(t *testing.T) {
+	root := t.TempDir()
+	aside := filepath.Join(root, ".tuning"+asideTag+"123")
+	staged := filepath.Join(root, ".tuning.tmp-456")
+	for d, c := range map[string]string{aside: "old", staged: "new"} {
+		os.Mkdir(d, 0o755)
+		os.WriteFile(filepath.Join(d, "point"), []byte(c), 0o644)
+	}
+	gone, err := RemoveLeftovers(root)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if b, err := os.ReadFile(filepath.Join(root, "tuning", "point")); err != nil || string(b) != "old" {
+		t.Errorf("tuning/point = %q, %v; want the old folder put back", b, err)
+	}
+	if len(gone) != 1 || gone[0] != staged {
+		t.Errorf("removed %v, want only %s", gone, staged)
+	}
+	if m, _ := filepath.Glob(filepath.Join(root, ".*")); len(m) != 0 {
+		t.Errorf("left %v", m)
+	}
+	// With the folder in place, an aside folder is an ordinary leftover.
+	os.Mkdir(aside, 0o755)
+	if gone, _ := RemoveLeftovers(root); len(gone) != 1 || gone[0] != aside {
+		t.Errorf("removed %v, want %s", gone, aside)
+	}
+	if _, err := os.Stat(filepath.Join(root, "tuning", "point")); err != nil {
+		t.Errorf("the folder in place was touched: %v", err)
+	}
+}

@@ -139,8 +139,10 @@ func TestCohenPublished(t *testing.T) {
 		src  string
 	}{
 		// Cohen (1960), Table 1: 200 items, 3 categories, p_o = .70,
-		// p_e = .41, κ = .492. // from memory (cells); margins and p_o, p_e
-		// check against the printed summary.
+		// p_e = .41, κ = .492 (cells from memory; their margins, p_o and
+		// p_e reproduce the printed summary); statsmodels cohens_kappa on
+		// the same cells gives the full-precision value of the next case
+		// (testdata/reference.py).
 		{"cohen1960", [][]float64{{88, 14, 18}, {10, 40, 10}, {2, 6, 12}}, 0.492, 5e-4, "Cohen 1960"},
 		{"cohen1960 statsmodels", [][]float64{{88, 14, 18}, {10, 40, 10}, {2, 6, 12}}, ref["cohen1960_kappa"], 1e-9, "statsmodels"},
 		// 2×2: p_o = 0.7, p_e = 0.5·0.6+0.5·0.4 = 0.5, κ = 0.4 (closed form;

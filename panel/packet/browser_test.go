@@ -150,7 +150,10 @@ func TestReviewPageInBrowser(t *testing.T) {
 	// Filters, checked on sines against filter theory: a second-order
 	// Butterworth passes its cut-off at 1/√2, and run forward and backward at
 	// 1/2 (−6 dB); far inside the pass band the gain is 1; a notch of Q 30
-	// removes its centre frequency (Oppenheim & Schafer 2010, §7; from memory).
+	// removes its centre frequency (Oppenheim & Schafer 2010, §7; section
+	// number from memory). The same five gains from scipy.signal.butter,
+	// iirnotch and sosfiltfilt: 0.9999, 0.5000, 0.5000, 0.0000, 0.0000
+	// (testdata/filter_gains.py).
 	gain := func(f, lff, hff, notch float64) float64 {
 		t.Helper()
 		js := fmt.Sprintf(`(() => { const n = 4096, x = []; for (let j = 0; j < n; j++) x.push(Math.sin(2*Math.PI*%g*j/256));

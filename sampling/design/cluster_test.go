@@ -47,6 +47,7 @@ func TestClusterVarianceReference(t *testing.T) {
 			SensitivityVar float64       `json:"sensitivity_var"`
 			DF             float64       `json:"df"`
 		} `json:"nested"`
+		T975 map[string]float64 `json:"t975"`
 	}
 	if err := json.Unmarshal(raw, &ref); err != nil {
 		t.Fatal(err)
@@ -75,11 +76,11 @@ func TestClusterVarianceReference(t *testing.T) {
 	near(t, "nested sensitivity var", e.Var, ref.Nested.SensitivityVar, 1e-12)
 	near(t, "nested df", e.DF, ref.Nested.DF, 0)
 
-	// t interval on the design df: t_{0.975, 9} = 2.262 (Student's t table,
-	// e.g. Cochran 1977, appendix — from memory).
+	// t interval on the design df: t_{0.975, 9} = 2.2621571627409915,
+	// scipy.stats.t.ppf(0.975, 9) (testdata/cluster.py, part 3).
 	lo, hi := e.CI(0.95)
-	if h := (hi - lo) / 2 / e.SE(); math.Abs(h-2.262) > 5e-4 {
-		t.Errorf("t quantile on %v df = %.4f, want 2.262", e.DF, h)
+	if h := (hi - lo) / 2 / e.SE(); e.DF != 9 || math.Abs(h-ref.T975["9"]) > 1e-9 {
+		t.Errorf("t quantile on %v df = %.10f, want scipy %.10f on 9 df", e.DF, h, ref.T975["9"])
 	}
 }
 
@@ -105,9 +106,31 @@ func TestEffectiveSizeKornGraubard(t *testing.T) {
 	e := Estimate{Value: 0.3, Var: 0.0021, DF: 199}
 	near(t, "df = n−1", e.EffectiveSize(200, 0.95), 0.21/0.0021, 1e-9)
 	e.DF = 9
-	want := 0.21 / 0.0021 * math.Pow(1.971957/2.262157, 2) // t table values, from memory
-	near(t, "df = 9", e.EffectiveSize(200, 0.95), want, 1e-4)
+	// t_{0.975,199} and t_{0.975,9}: scipy.stats.t.ppf, testdata/cluster.py
+	// part 3 (written to testdata/cluster.json).
+	tq := readT975(t)
+	want := 0.21 / 0.0021 * math.Pow(tq["199"]/tq["9"], 2)
+	near(t, "df = 9", e.EffectiveSize(200, 0.95), want, 1e-9)
 	near(t, "capped at n", e.EffectiveSize(60, 0.95), 60, 0)
+}
+
+// readT975 reads the scipy t quantiles of testdata/cluster.json.
+func readT975(t *testing.T) map[string]float64 {
+	t.Helper()
+	raw, err := os.ReadFile("testdata/cluster.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var ref struct {
+		T975 map[string]float64 `json:"t975"`
+	}
+	if err := json.Unmarshal(raw, &ref); err != nil {
+		t.Fatal(err)
+	}
+	if ref.T975["9"] == 0 || ref.T975["199"] == 0 {
+		t.Fatal("testdata/cluster.json has no t975 quantiles")
+	}
+	return ref.T975
 }
 
 func near(t *testing.T, what string, got, want, tol float64) {

@@ -31,14 +31,20 @@ func TestMedianSelect(t *testing.T) {
 }
 
 // TestBlockMAD checks the median absolute deviation of {1, 1, 2, 2, 4, 6, 9}:
-// median 2, absolute deviations {1, 1, 0, 0, 2, 4, 7}, MAD 1 (worked example
-// of the MAD; from memory), and the robust scale 1.4826 × MAD on a normal
-// sample against its standard deviation (Hampel 1974).
+// median 2, absolute deviations {1, 1, 0, 0, 2, 4, 7}, MAD 1 (hand count;
+// numpy.median and scipy.stats.median_abs_deviation give 2 and 1,
+// testdata/mad.py), the factor madToSD against scipy's 1/Φ⁻¹(3/4) =
+// 1.482602218505602 (scipy.stats.norm.ppf, testdata/mad.py), and the robust
+// scale madToSD × MAD on a normal sample against its standard deviation
+// (Hampel 1974).
 func TestBlockMAD(t *testing.T) {
 	x := []float32{1, 1, 2, 2, 4, 6, 9}
 	med, mad := blockStats(x, 7, nil, nil, nil)
 	if med[0] != 2 || mad[0] != 1 {
 		t.Errorf("median %g MAD %g, want 2 and 1", med[0], mad[0])
+	}
+	if math.Abs(madToSD-1.482602218505602) > 1e-15 {
+		t.Errorf("madToSD = %.16g, want scipy 1/norm.ppf(0.75) = 1.482602218505602", madToSD)
 	}
 	r := rand.New(rand.NewPCG(3, 4))
 	y := make([]float32, 256*40)

@@ -24,6 +24,7 @@ type scipyRef struct {
 		Name      string
 		F0, Q, Fs float64
 		SOS       [][6]float64 `json:"sos"`
+		Gain      []float64    `json:"gain_dc_f0_nyquist"`
 	}
 	Buttap []struct {
 		N   int
@@ -62,7 +63,10 @@ func close(a, b, abs, rel float64) bool {
 func TestButterworthPolynomialHandbook(t *testing.T) {
 	// Normalised Butterworth polynomials to 4 decimals, highest power first.
 	// Williams & Taylor, Electronic Filter Design Handbook (4th ed., 2006),
-	// Table 11-1 "Butterworth polynomials"; from memory.
+	// Table 11-1 "Butterworth polynomials"; the four-decimal table is
+	// from memory. The same coefficients at full precision come from
+	// scipy.signal.buttap + numpy.poly (testdata/gen_scipy.py) in
+	// TestButterworthPolynomialScipy.
 	table := [][]float64{
 		{1, 1},
 		{1, 1.4142, 1},
@@ -145,13 +149,17 @@ func TestNotchScipy(t *testing.T) {
 			}
 		}
 		// Zeros on the unit circle at f0: complete rejection; unity gain
-		// at DC and Nyquist. Orfanidis (1996), §11.3; from memory.
-		if h := cmplx.Abs(FrequencyResponse(got, c.F0, c.Fs)); h > 1e-12 {
-			t.Errorf("%s: |H(f0)| = %g", c.Name, h)
+		// at DC and Nyquist (Orfanidis 1996, §11.3; section from memory).
+		// scipy.signal.freqz of scipy's notch gives 1, 0 and 1 there
+		// (testdata/gen_scipy.py, gain_dc_f0_nyquist).
+		if len(c.Gain) != 3 {
+			t.Fatalf("%s: %d scipy gains, want 3", c.Name, len(c.Gain))
 		}
-		for _, f := range []float64{0, c.Fs / 2} {
-			if h := cmplx.Abs(FrequencyResponse(got, f, c.Fs)); math.Abs(h-1) > 1e-12 {
-				t.Errorf("%s: |H(%g)| = %g, want 1", c.Name, f, h)
+		for k, f := range []float64{0, c.F0, c.Fs / 2} {
+			want := []float64{1, 0, 1}[k]
+			h := cmplx.Abs(FrequencyResponse(got, f, c.Fs))
+			if math.Abs(h-want) > 1e-12 || math.Abs(h-c.Gain[k]) > 1e-12 {
+				t.Errorf("%s: |H(%g)| = %g, want %g (scipy freqz %g)", c.Name, f, h, want, c.Gain[k])
 			}
 		}
 	}

@@ -1,7 +1,7 @@
 package signal
 
 // block is the number of samples run through the whole cascade at a time,
-// so a long signal is read from memory once per pass rather than once per
+// so a long signal is read from main memory once per pass rather than once per
 // section (16 KiB of float64 stays in the level-1 cache).
 const block = 2048
 

@@ -19,18 +19,36 @@ func TestConfusionRates(t *testing.T) {
 	// Altman & Bland (1994), "Diagnostic tests 1: sensitivity and
 	// specificity", BMJ 308:1552: liver scan against necropsy/biopsy, 231
 	// true positives, 32 false positives, 27 false negatives, 54 true
-	// negatives; sensitivity 0.895, specificity 0.628 (from memory), and
-	// Altman & Bland (1994), BMJ 309:102, PPV 0.878, NPV 0.667 (from memory).
+	// negatives; the paper prints sensitivity 0.895 and specificity 0.628,
+	// and Altman & Bland (1994), BMJ 309:102, PPV 0.878 and NPV 0.667 (the
+	// printed three decimals from memory). Full precision:
+	// sklearn.metrics.recall_score and precision_score with pos_label 1
+	// and 0 and the cell counts as sample_weight (testdata/reference.py).
+	ref := readLibRef(t)
 	c := Confusion{TP: 231, FP: 32, FN: 27, TN: 54}
+	for _, tc := range []struct {
+		name string
+		got  float64
+		lib  float64
+		want float64
+	}{
+		{"sensitivity", c.Sensitivity(), ref.AltmanBland.Sensitivity, 0.895},
+		{"specificity", c.Specificity(), ref.AltmanBland.Specificity, 0.628},
+		{"PPV", c.PPV(), ref.AltmanBland.PPV, 0.878},
+		{"NPV", c.NPV(), ref.AltmanBland.NPV, 0.667},
+	} {
+		if !near(tc.got, tc.lib, 1e-12) {
+			t.Errorf("%s = %v, want scikit-learn %v", tc.name, tc.got, tc.lib)
+		}
+		if !near(tc.got, tc.want, 5e-4) {
+			t.Errorf("%s = %v, want published %v", tc.name, tc.got, tc.want)
+		}
+	}
 	for _, tc := range []struct {
 		name string
 		got  float64
 		want float64
 	}{
-		{"sensitivity", c.Sensitivity(), 0.895},
-		{"specificity", c.Specificity(), 0.628},
-		{"PPV", c.PPV(), 0.878},
-		{"NPV", c.NPV(), 0.667},
 		// LR+ = 0.895/0.372 and LR− = 0.105/0.628, closed form from the
 		// rates above.
 		{"LR+", c.LRPos(), (231.0 / 258) / (32.0 / 86)},

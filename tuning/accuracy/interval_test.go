@@ -8,7 +8,10 @@ import (
 // Newcombe (1998), Statistics in Medicine 17:857–872, Table II, methods 3
 // and 4, four decimals (from memory); the full-precision values are R 4
 // prop.test(x, n, correct = FALSE / TRUE)$conf.int, whose interval is the
-// same score interval (testdata/delong_proc.R).
+// same score interval (testdata/delong_proc.R), and TestWilsonScipy checks
+// them again against scipy.stats.binomtest(x, n).proportion_ci(method =
+// "wilson" / "wilsoncc") and statsmodels proportion_confint(method =
+// "wilson") (testdata/reference.py).
 var wilsonCases = []struct {
 	x, n                                   float64
 	lo, hi                                 float64 // prop.test, correct = FALSE
@@ -37,6 +40,27 @@ func TestWilsonNewcombe(t *testing.T) {
 		}
 		if !near(lo, c.paperCCLo, 5e-5) || !near(hi, c.paperCCHi, 5e-5) {
 			t.Errorf("WilsonCC(%v/%v) = [%.4f, %.4f], want Newcombe [%v, %v]", c.x, c.n, lo, hi, c.paperCCLo, c.paperCCHi)
+		}
+	}
+}
+
+func TestWilsonScipy(t *testing.T) {
+	ref := readLibRef(t)
+	if len(ref.Wilson) != len(wilsonCases) {
+		t.Fatalf("%d scipy cases, %d Newcombe cases", len(ref.Wilson), len(wilsonCases))
+	}
+	for i, r := range ref.Wilson {
+		c := wilsonCases[i]
+		if r.X != c.x || r.N != c.n {
+			t.Fatalf("case %d: scipy %v/%v, Newcombe %v/%v", i, r.X, r.N, c.x, c.n)
+		}
+		lo, hi := Wilson(r.X, r.N, 0.95)
+		if !near(lo, r.Lo, 1e-12) || !near(hi, r.Hi, 1e-12) || !near(lo, r.SMLo, 1e-12) || !near(hi, r.SMHi, 1e-12) {
+			t.Errorf("Wilson(%v/%v) = [%v, %v], want scipy [%v, %v], statsmodels [%v, %v]", r.X, r.N, lo, hi, r.Lo, r.Hi, r.SMLo, r.SMHi)
+		}
+		lo, hi = WilsonCC(r.X, r.N, 0.95)
+		if !near(lo, r.CCLo, 1e-12) || !near(hi, r.CCHi, 1e-12) {
+			t.Errorf("WilsonCC(%v/%v) = [%v, %v], want scipy wilsoncc [%v, %v]", r.X, r.N, lo, hi, r.CCLo, r.CCHi)
 		}
 	}
 }

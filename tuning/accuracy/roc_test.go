@@ -65,16 +65,31 @@ func TestAUCHanleyMcNeil(t *testing.T) {
 	tpr, fpr, _ := ROC(s, tr, nil)
 	// Hanley & McNeil (1982) Table 2: trapezoidal area 0.893 (from memory);
 	// pROC 1.18 auc() on the same table: 0.893171061528059
-	// (testdata/delong_proc.R).
+	// (testdata/delong_proc.R); sklearn.metrics.roc_auc_score and
+	// scipy.stats.mannwhitneyu U/(mn) agree (testdata/reference.py).
 	got := AUC(tpr, fpr)
 	if !near(got, 0.893171061528059, 1e-12) {
 		t.Errorf("AUC = %v, want pROC 0.893171061528059", got)
 	}
+	ref := readLibRef(t)
+	if !near(got, ref.HanleyMcNeil.ROCAUCScore, 1e-12) || !near(got, ref.HanleyMcNeil.MannWhitneyAUC, 1e-12) {
+		t.Errorf("AUC = %v, want roc_auc_score %v, Mann–Whitney %v", got, ref.HanleyMcNeil.ROCAUCScore, ref.HanleyMcNeil.MannWhitneyAUC)
+	}
+	if !near(got, 0.893, 5e-4) {
+		t.Errorf("AUC = %v, want published 0.893", got)
+	}
 	// Hanley & McNeil (1982): SE(0.893) with 51 abnormal, 58 normal is
 	// 0.032 (from memory); the formula gives 0.0325, so the published
-	// figure is matched only to its rounding (±0.001).
-	if se := HanleyMcNeilSE(0.893, 51, 58); !near(se, 0.032, 1e-3) {
+	// figure is matched only to its rounding (±0.001). No general library
+	// has this approximation: testdata/reference.py writes the paper's
+	// formula out with numpy (0.03251158176764658); the library variance of
+	// the same table is pROC's DeLong variance in TestDeLongAgainstPROC.
+	se := HanleyMcNeilSE(0.893, 51, 58)
+	if !near(se, 0.032, 1e-3) {
 		t.Errorf("HanleyMcNeilSE = %v, want 0.032", se)
+	}
+	if !near(se, ref.HanleyMcNeil.SENumpy, 1e-12) {
+		t.Errorf("HanleyMcNeilSE = %v, want numpy %v", se, ref.HanleyMcNeil.SENumpy)
 	}
 	// Closed form: A = 0.5 gives Q1 = 1/3, Q2 = 1/3, so with m = n = 1
 	// SE² = A(1−A) = 0.25.

@@ -15,6 +15,9 @@ variances of design-weighted ratios with subjects as primary sampling units.
    sum w y / sum w x (sensitivity: y = pred & truth, x = truth):
    v = sum_h n_h/(n_h-1) sum_c (t_c - tbar_h)^2 / X^2,
    t_c = sum_{i in c} w_i (y_i - R x_i); df = #PSU - #strata.
+3. Student t quantiles t_{0.975, df} for df 9 and 199 from
+   scipy.stats.t.ppf (scipy 1.10), for the design-df interval and the
+   Korn & Graubard (1998) effective size.
 Run: /usr/bin/python3 cluster.py > cluster.json
 """
 import json
@@ -76,4 +79,7 @@ t = np.array([float(u["truth"]) for u in nested])
 p = np.array([float(u["pred"]) for u in nested])
 R, v, df = ultimate_cluster(nested, p * t, t, by_stratum=True)
 out["nested"] = dict(units=nested, sensitivity=R, sensitivity_var=v, df=df)
+# 3. t quantiles
+from scipy import stats
+out["t975"] = {str(d): float(stats.t.ppf(0.975, d)) for d in (9, 199)}
 print(json.dumps(out, indent=1))

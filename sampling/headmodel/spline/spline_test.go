@@ -9,9 +9,39 @@ import (
 	"github.com/quorate-eeg/quorate/sampling/headmodel"
 )
 
-// Explicit Legendre polynomials P_2 … P_5 (Abramowitz & Stegun 1964,
-// Table 22.9 coefficients; from memory).
+// Explicit Legendre polynomials P_1 … P_5 (Abramowitz & Stegun 1964,
+// Table 22.9), whose coefficients are checked here against
+// scipy.special.legendre(n).coeffs, and legendre(n, x) against
+// scipy.special.eval_legendre (testdata/gen_spline.py).
 func TestLegendreClosedForm(t *testing.T) {
+	coeffs := map[int][]float64{ // highest power first
+		1: {1, 0},
+		2: {3. / 2, 0, -1. / 2},
+		3: {5. / 2, 0, -3. / 2, 0},
+		4: {35. / 8, 0, -30. / 8, 0, 3. / 8},
+		5: {63. / 8, 0, -70. / 8, 0, 15. / 8, 0},
+	}
+	ref := loadRef(t)
+	if len(ref.Legendre) != 5 {
+		t.Fatalf("%d scipy Legendre cases, want 5", len(ref.Legendre))
+	}
+	for _, c := range ref.Legendre {
+		want := coeffs[c.N]
+		if len(c.Coeffs) != len(want) {
+			t.Fatalf("P_%d: scipy has %d coefficients, want %d", c.N, len(c.Coeffs), len(want))
+		}
+		for j := range want {
+			if math.Abs(c.Coeffs[j]-want[j]) > 1e-12 {
+				t.Errorf("P_%d coefficient %d: closed form %v, scipy %v", c.N, j, want[j], c.Coeffs[j])
+			}
+		}
+		for j, x := range c.X {
+			if got := legendre(c.N, x); math.Abs(got-c.P[j]) > 1e-14 {
+				t.Errorf("P_%d(%g) = %.16g, scipy eval_legendre %.16g", c.N, x, got, c.P[j])
+			}
+		}
+	}
+
 	closed := map[int]func(x float64) float64{
 		1: func(x float64) float64 { return x },
 		2: func(x float64) float64 { return (3*x*x - 1) / 2 },
@@ -43,6 +73,11 @@ type splineRef struct {
 		C0          float64
 		C           []float64
 		QueryValues []float64 `json:"query_values"`
+	}
+	Legendre []struct {
+		N      int
+		X, P   []float64
+		Coeffs []float64
 	}
 }
 

@@ -54,8 +54,10 @@ for name, kind, order, fs, edges in designs:
                            "fs": fs, "edges": edges, "sos": sos.tolist()})
 for name, f0, q, fs in notches:
     b, a = signal.iirnotch(f0, q, fs=fs)
+    # |H| at DC, f0 and Nyquist from scipy.signal.freqz
+    _, h = signal.freqz(b, a, worN=[0.0, f0, fs / 2], fs=fs)
     out["notches"].append({"name": name, "f0": f0, "q": q, "fs": fs,
-                           "sos": [list(b) + list(a)]})
+                           "sos": [list(b) + list(a)], "gain_dc_f0_nyquist": np.abs(h).tolist()})
 
 x = test_input(1024)
 out["x"] = x.tolist()

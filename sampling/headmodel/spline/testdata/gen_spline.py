@@ -4,11 +4,15 @@ Bertrand & Echallier 1989), independent of the Go code: Legendre
 polynomials from scipy.special.eval_legendre, the (n+1)x(n+1) system
 [[G + lambda I, 1], [1', 0]] [c; c0] = [v; 0] solved with numpy.linalg.solve.
 
+Also P_1 ... P_5 at a few x from scipy.special.eval_legendre and their
+power-series coefficients from scipy.special.legendre(n).coeffs (the
+closed forms of Abramowitz & Stegun 1964, Table 22.9).
+
 Run: /usr/bin/python3 gen_spline.py > spline_ref.json
 """
 import json
 import numpy as np
-from scipy.special import eval_legendre
+from scipy.special import eval_legendre, legendre
 
 
 def g(m, nterms, x):
@@ -47,8 +51,11 @@ def main():
         c, c0 = sol[:n], sol[n]
         out = [float(c0 + sum(c[i] * g(m, nterms, float(q @ el[i])) for i in range(n))) for q in queries]
         interp.append({"m": m, "lambda": lam, "nterms": nterms, "c0": float(c0), "c": c.tolist(), "query_values": out})
+    lx = [-1.0, -0.7, -0.2, 0.0, 0.35, 0.9, 1.0]
+    leg = [{"n": n, "x": lx, "p": [float(eval_legendre(n, x)) for x in lx],
+            "coeffs": [float(c) for c in legendre(n).coeffs]} for n in range(1, 6)]
     print(json.dumps({"g": gvals, "electrodes": el.tolist(), "values": vals.tolist(),
-                      "queries": queries.tolist(), "interp": interp}, indent=1))
+                      "queries": queries.tolist(), "interp": interp, "legendre": leg}, indent=1))
 
 
 if __name__ == "__main__":
