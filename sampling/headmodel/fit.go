@@ -120,16 +120,20 @@ func (f *Fitter) carLead(dst []Vec3, pos Vec3) [3][3]float64 {
 		mean = mean.Add(dst[i])
 	}
 	mean = mean.Scale(1 / float64(len(dst)))
-	var m [3][3]float64
+	// the Gram matrix's six distinct sums, each in the same order as a
+	// full 3×3 loop would add them, so the result is the same bit for bit
+	var m00, m01, m02, m11, m12, m22 float64
 	for i := range dst {
-		dst[i] = dst[i].Sub(mean)
-		for a := 0; a < 3; a++ {
-			for b := 0; b < 3; b++ {
-				m[a][b] += dst[i][a] * dst[i][b]
-			}
-		}
+		l := dst[i].Sub(mean)
+		dst[i] = l
+		m00 += l[0] * l[0]
+		m01 += l[0] * l[1]
+		m02 += l[0] * l[2]
+		m11 += l[1] * l[1]
+		m12 += l[1] * l[2]
+		m22 += l[2] * l[2]
 	}
-	return m
+	return [3][3]float64{{m00, m01, m02}, {m01, m11, m12}, {m02, m12, m22}}
 }
 
 // Fit fits one equivalent dipole to v (one value per electrode, any
