@@ -60,3 +60,33 @@ func TestBlockMAD(t *testing.T) {
 		}
 	}
 }
+
+// TestSlidingScaleMatchesSort checks the running median of slidingScale
+// against the median of each block's reach sorted afresh by the standard
+// library's slices.Sort, bit for bit, on random scales with ties, for
+// reaches wider than the whole input too.
+func TestSlidingScaleMatchesSort(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	for trial := range 200 {
+		n, h := 1+rng.IntN(40), rng.IntN(8)
+		mad := make([]float64, n)
+		for i := range mad {
+			mad[i] = float64(rng.IntN(6)) * 0.25 // ties are common
+			if trial%3 == 0 {
+				mad[i] = rng.ExpFloat64()
+			}
+		}
+		got := slidingScale(mad, h, nil)
+		for b := range mad {
+			w := slices.Clone(mad[max(b-h, 0):min(b+h+1, n)])
+			slices.Sort(w)
+			m := w[len(w)/2]
+			if len(w)%2 == 0 {
+				m = (w[len(w)/2-1] + w[len(w)/2]) / 2
+			}
+			if got[b] != madToSD*m {
+				t.Fatalf("n %d h %d block %d: %v, sorted afresh %v", n, h, b, got[b], madToSD*m)
+			}
+		}
+	}
+}

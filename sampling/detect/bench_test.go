@@ -237,10 +237,10 @@ func TestFinderAt(t *testing.T) {
 	c := int64(onset * in.Rate)
 	C := int64(30 * in.Rate)
 	w, _, _ := e.condition(max(c-C, 0), min(c+C, in.Len), max(c-C, 0), min(c+C, in.Len))
-	block, bstart := e.scales(w)
+	block, bstart, bend := e.scales(w, w.lo, w.hi)
 	e.bank.hats = hatsFor(in.Rate)
 	for d, x := range e.det {
-		e.bank.prepare(x, bstart, w.hi, block, 5)
+		e.bank.prepare(x, bstart, bend, block, 5)
 		ci := int(c - w.base)
 		for i := ci - 8; i <= ci+8; i++ {
 			ok, sign := isExtremum(x, i)

@@ -259,27 +259,37 @@ func (e *engine) carTraces(w window) [][]float32 {
 const scaleStride = 4
 
 // scales computes the robust background scale per 1 s block of every
-// derivation over [w.lo, w.hi). Blocks are aligned to whole seconds of the
-// input (sample multiples of the block length), not to the window, so that a
-// window cut differently (MeasureAt's) gives the same scales. It returns the
-// block length and the buffer index where block 0 starts; samples before it
-// take block 0's scale.
-func (e *engine) scales(w window) (block, start int) {
+// derivation, for the blocks that samples [from, to) of window w read.
+// Blocks are aligned to whole seconds of the input (sample multiples of the
+// block length), not to the window, so that a window cut differently
+// (MeasureAt's) gives the same scales. A block's scale is the median over
+// the BackgroundS/2 = h blocks either side (slidingScale), so the blocks
+// computed are those of [from, to) and h more either side, clipped to the
+// window's [w.lo, w.hi): the scales read are then exactly those of every
+// block of the window, without the cost of the blocks in the window's
+// context that no detection reads. It returns the block length and the
+// buffer indexes [start, end) of the blocks computed; samples before start
+// take the first block's scale (start is the window's first block then).
+func (e *engine) scales(w window, from, to int) (block, start, end int) {
 	block = max(1, int(math.Round(e.rate)))
 	start = w.lo + int((int64(block)-(w.base+int64(w.lo))%int64(block))%int64(block))
 	if w.hi-start < block/2 {
 		start = w.lo
 	}
 	h := max(0, int(math.Round(e.s.backS/2)))
+	nb := (w.hi - start + block - 1) / block // blocks of the whole window
+	b0 := max(0, (from-start)/block-h)
+	b1 := min(nb, max(0, to-1-start)/block+h+1)
+	start, end = start+b0*block, min(start+b1*block, w.hi)
 	n := len(e.det)
 	for len(e.med) < n {
 		e.med, e.mad, e.scale = append(e.med, nil), append(e.mad, nil), append(e.scale, nil)
 	}
 	for d := range n {
-		e.med[d], e.mad[d] = blockStatsStride(e.det[d][start:w.hi], block, scaleStride, e.med[d], e.mad[d], e.blk)
+		e.med[d], e.mad[d] = blockStatsStride(e.det[d][start:end], block, scaleStride, e.med[d], e.mad[d], e.blk)
 		e.scale[d] = slidingScale(e.mad[d], h, e.scale[d])
 	}
-	return block, start
+	return block, start, end
 }
 
 // scaleAt is the background scale of derivation d at buffer index i.
@@ -331,19 +341,19 @@ func (e *engine) run(ctx context.Context, emit func([]candidate.Row) error) erro
 // that events at the window's edges are merged and suppressed as they would
 // be inside it.
 func (e *engine) find(w window, ws, we int64) []cluster {
-	block, bstart := e.scales(w)
 	tol := int(math.Round(e.s.mergeS * e.rate))
 	before, after := int(math.Round(complexBeforeS*e.rate)), int(math.Round(complexAfterS*e.rate))
 	reach := tol + before + after
 	from := max(int(ws-w.base)-reach, w.lo)
 	to := min(int(we-w.base)+reach, w.hi)
+	block, bstart, bend := e.scales(w, from, to)
 	e.dets = e.dets[:0]
 	if e.bank.hats == nil {
 		e.bank.hats = hatsFor(e.rate)
 	}
 	h := max(0, int(math.Round(e.s.backS/2)))
 	for d, x := range e.det {
-		e.bank.prepare(x, bstart, w.hi, block, h)
+		e.bank.prepare(x, bstart, bend, block, h)
 		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
 		zAt := func(i int, sign float64) float64 { return e.bank.z(i, sign, bstart, block) }
 		e.dets = findChannel(e.dets, d, x, from, to, e.rate, e.s.thr, at, zAt)

@@ -12,7 +12,15 @@ import "math"
 // its width. Zero mean and symmetric, its gain rises as f² from zero
 // frequency, which suppresses the slow, high-power part of a 1/f background.
 type hat struct {
-	h int // half-width of the centre box, samples
+	h      int     // half-width of the centre box, samples
+	ic, is float64 // 1/(2h+1) and 1/(2·outer+1), the boxes' mean weights
+}
+
+// newHat returns the hat of centre half-width h.
+func newHat(h int) hat {
+	k := hat{h: h}
+	k.ic, k.is = 1/float64(2*h+1), 1/float64(2*k.outer()+1)
+	return k
 }
 
 // outer is the half-width of the surround, 3h+1, so that the surround is
@@ -36,8 +44,8 @@ func (k hat) at(cum []float64, i int) float32 {
 	if i < o || i >= len(cum)-1-o {
 		return 0
 	}
-	c := (cum[i+h+1] - cum[i-h]) * (1 / float64(2*h+1))
-	s := (cum[i+o+1] - cum[i-o]) * (1 / float64(2*o+1))
+	c := (cum[i+h+1] - cum[i-h]) * k.ic
+	s := (cum[i+o+1] - cum[i-o]) * k.is
 	return float32(c - s)
 }
 
@@ -53,7 +61,7 @@ func hatsFor(fs float64) []hat {
 		if len(out) > 0 && out[len(out)-1].h == h {
 			continue
 		}
-		out = append(out, hat{h})
+		out = append(out, newHat(h))
 	}
 	return out
 }
@@ -109,9 +117,10 @@ func (b *bank) prepare(x []float32, start, end, block, h int) {
 // in prepare.
 func (b *bank) z(i int, sign float64, start, block int) float64 {
 	z := math.Inf(-1)
+	bi := max(i-start, 0) / block
 	for k := range b.hats {
 		sc := b.scale[k]
-		s := sc[min(max(i-start, 0)/block, len(sc)-1)]
+		s := sc[min(bi, len(sc)-1)]
 		if s > 0 {
 			z = max(z, sign*float64(b.hats[k].at(b.cum, i))/s)
 		}

@@ -15,7 +15,7 @@ import (
 // Bernoulli polynomials).
 func TestHatResponse(t *testing.T) {
 	for _, h := range []int{1, 3, 6} {
-		k := hat{h}
+		k := newHat(h)
 		o := k.outer()
 		n := 4*o + 10
 		for name, f := range map[string]func(i int) float64{

@@ -91,7 +91,7 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 		e.warn("onset %s: window could not be conditioned", formatS(t))
 		return candidate.Row{}, false, err
 	}
-	block, bstart := e.scales(w)
+	block, bstart, bend := e.scales(w, w.lo, w.hi)
 	tol := int(math.Round(e.s.mergeS * fs))
 	if e.bank.hats == nil {
 		e.bank.hats = hatsFor(fs)
@@ -105,7 +105,7 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 	near := make([]bool, len(e.det)) // derivations with a detection near the onset
 	var dets []detection
 	for d, x := range e.det {
-		e.bank.prepare(x, bstart, w.hi, block, h)
+		e.bank.prepare(x, bstart, bend, block, h)
 		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
 		zAt := func(i int, sign float64) float64 { return e.bank.z(i, sign, bstart, block) }
 		for i := max(int(ws-w.base), 1); i < min(int(we-w.base), len(x)-1); i++ {

@@ -5,7 +5,6 @@ import (
 	"sort"
 
 	"gonum.org/v1/gonum/mat"
-	"gonum.org/v1/gonum/optimize"
 )
 
 // Dipole is an equivalent current dipole fitted to a voltage map.
@@ -121,16 +120,20 @@ func (f *Fitter) carLead(dst []Vec3, pos Vec3) [3][3]float64 {
 		mean = mean.Add(dst[i])
 	}
 	mean = mean.Scale(1 / float64(len(dst)))
-	var m [3][3]float64
+	// the Gram matrix's six distinct sums, each in the same order as a
+	// full 3×3 loop would add them, so the result is the same bit for bit
+	var m00, m01, m02, m11, m12, m22 float64
 	for i := range dst {
-		dst[i] = dst[i].Sub(mean)
-		for a := 0; a < 3; a++ {
-			for b := 0; b < 3; b++ {
-				m[a][b] += dst[i][a] * dst[i][b]
-			}
-		}
+		l := dst[i].Sub(mean)
+		dst[i] = l
+		m00 += l[0] * l[0]
+		m01 += l[0] * l[1]
+		m02 += l[0] * l[2]
+		m11 += l[1] * l[1]
+		m12 += l[1] * l[2]
+		m22 += l[2] * l[2]
 	}
-	return m
+	return [3][3]float64{{m00, m01, m02}, {m01, m11, m12}, {m02, m12, m22}}
 }
 
 // Fit fits one equivalent dipole to v (one value per electrode, any
@@ -152,8 +155,8 @@ func Fit(v []float64, electrodes []Vec3, head Sphere, opts FitOptions) (Dipole, 
 //
 //	RV(r) = ‖v − L p‖² / ‖v‖²,
 //
-// which is minimised over r by gonum's Nelder–Mead (Nelder & Mead 1965)
-// from the best grid points,
+// which is minimised over r by Nelder–Mead (Nelder & Mead 1965; nelderMead3,
+// step for step as gonum's optimize.NelderMead) from the best grid points,
 // with positions beyond MaxEccentricity·r₁ penalised as 1 + 100·excess/R.
 // GOF = 1 − RV, the share of the map's variance the dipole explains.
 // The forward model is the Berg–Scherg approximation of head,
@@ -212,15 +215,12 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 	best := cand{rv: math.Inf(1)}
 	for s := 0; s < f.opts.Starts && s < len(cands); s++ {
 		c := cands[s]
-		res, err := optimize.Minimize(optimize.Problem{Func: obj}, c.pos[:], &optimize.Settings{
-			FuncEvaluations: f.opts.MaxEval,
-			Converger:       &optimize.FunctionConverge{Absolute: 1e-9, Iterations: 8},
-		}, &optimize.NelderMead{SimplexSize: 0.5 * f.opts.GridStep * R})
-		if err != nil || res == nil {
+		res := nelderMead3(obj, c.pos, 0.5*f.opts.GridStep*R, f.opts.MaxEval, 1e-9, 8)
+		if !res.ok {
 			continue
 		}
-		if res.F < best.rv {
-			best = cand{Vec3{res.X[0], res.X[1], res.X[2]}, res.F}
+		if res.f < best.rv {
+			best = cand{res.x, res.f}
 		}
 	}
 

@@ -1,9 +1,6 @@
 package montage
 
-import (
-	"math"
-	"slices"
-)
+import "math"
 
 // Thresholds of ChannelQuality, in physical units (µV for EEG).
 const (
@@ -63,14 +60,66 @@ func ChannelQuality(x []float32, physRange [2]float64) Quality {
 		q.Flat = true
 		return q
 	}
-	slices.Sort(v)
-	q.Spread = rank(v, 0.99) - rank(v, 0.01)
+	// the two ranks by selection, the upper first: everything before it is
+	// then no larger, so the lower is selected within that part
+	hi99 := rankIndex(len(v), 0.99)
+	top := selectRank(v, hi99)
+	q.Spread = top - selectRank(v[:hi99+1], rankIndex(len(v), 0.01))
 	q.Flat = q.Spread < FlatSpread
 	return q
 }
 
-// rank is the nearest-rank p-quantile of sorted v: v[⌈pn⌉−1].
-func rank(v []float64, p float64) float64 {
-	k := int(math.Ceil(p*float64(len(v)))) - 1
-	return v[max(min(k, len(v)-1), 0)]
+// rankIndex is the index of the nearest-rank p-quantile in n sorted values:
+// ⌈pn⌉−1, clamped to [0, n−1].
+func rankIndex(n int, p float64) int {
+	k := int(math.Ceil(p*float64(n))) - 1
+	return max(min(k, n-1), 0)
+}
+
+// selectRank reorders v so that v[k] is the value sorting would put there,
+// no larger values before it and no smaller after, and returns it: Hoare's
+// selection (1961, "Algorithm 65: Find", Commun ACM 4(7):321–322) with a
+// median-of-three pivot and a three-way partition, O(n) on average where a sort is O(n log n). v
+// holds no NaN.
+func selectRank(v []float64, k int) float64 {
+	lo, hi := 0, len(v)-1
+	for hi > lo {
+		mid := lo + (hi-lo)/2
+		if v[mid] < v[lo] {
+			v[mid], v[lo] = v[lo], v[mid]
+		}
+		if v[hi] < v[lo] {
+			v[hi], v[lo] = v[lo], v[hi]
+		}
+		if v[mid] < v[hi] {
+			v[hi], v[mid] = v[mid], v[hi]
+		}
+		p := v[hi] // the median of three, v[lo] ≤ v[hi] ≤ v[mid]
+		// three-way partition (Dijkstra's Dutch national flag): [lo, lt) < p,
+		// [lt, i) = p, (gt, hi] > p, so that runs of equal values, a flat
+		// channel's, end the search at once instead of one value a pass
+		lt, i, gt := lo, lo, hi
+		for i <= gt {
+			switch x := v[i]; {
+			case x < p:
+				v[lt], v[i] = x, v[lt]
+				lt++
+				i++
+			case x > p:
+				v[gt], v[i] = x, v[gt]
+				gt--
+			default:
+				i++
+			}
+		}
+		switch {
+		case k < lt:
+			hi = lt - 1
+		case k > gt:
+			lo = gt + 1
+		default:
+			return v[k]
+		}
+	}
+	return v[k]
 }

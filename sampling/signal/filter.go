@@ -38,6 +38,10 @@ func forward(c SOS, z [][2]float64, x []float64) {
 		for ; i+3 < len(c); i += 4 {
 			quadUp((*[4][6]float64)(c[i:i+4]), (*[4][2]float64)(z[i:i+4]), b)
 		}
+		if i+3 == len(c) {
+			tripleUp((*[3][6]float64)(c[i:i+3]), (*[3][2]float64)(z[i:i+3]), b)
+			i += 3
+		}
 		for ; i+1 < len(c); i += 2 {
 			pairUp((*[2][6]float64)(c[i:i+2]), (*[2][2]float64)(z[i:i+2]), b)
 		}
@@ -55,6 +59,10 @@ func backward(c SOS, z [][2]float64, x []float64) {
 		i := 0
 		for ; i+3 < len(c); i += 4 {
 			quadDown((*[4][6]float64)(c[i:i+4]), (*[4][2]float64)(z[i:i+4]), b)
+		}
+		if i+3 == len(c) {
+			tripleDown((*[3][6]float64)(c[i:i+3]), (*[3][2]float64)(z[i:i+3]), b)
+			i += 3
 		}
 		for ; i+1 < len(c); i += 2 {
 			pairDown((*[2][6]float64)(c[i:i+2]), (*[2][2]float64)(z[i:i+2]), b)
