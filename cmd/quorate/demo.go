@@ -130,7 +130,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	df := &drawFlags{n: min(f.n, len(cands)), strata: c.Draw.Strata, allocation: c.Draw.Allocation, sdColumn: "score",
 		min: c.Draw.MinPerStratum, capN: c.Draw.SubjectCap, controls: c.Draw.Controls, epochS: c.Draw.ControlEpochS,
 		distS: c.Draw.ControlDistS, seed: f.seed}
-	if err := runDraw(g, s, df); err != nil && !isWarnings(err) {
+	if err := runDraw(ctx, g, s, df); err != nil && !isWarnings(err) {
 		return err
 	}
 	step("packets")
@@ -174,7 +174,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	}
 	sort.Strings(paths)
 	step("merge")
-	if err := runMerge(g, s, paths, f.seed); err != nil {
+	if err := runMerge(ctx, g, s, paths, f.seed); err != nil {
 		return err
 	}
 	step("tune")

@@ -2,6 +2,8 @@ package main
 
 import (
 	"bufio"
+	"bytes"
+	"context"
 	"encoding/json"
 	"os"
 	"path/filepath"
@@ -90,4 +92,26 @@ func TestInitScanStrict(t *testing.T) {
 		}
 		return nil
 	})
+}
+
+// runCLI takes the output streams as arguments: an error and its hint reach the
+// injected stderr and nothing reaches stdout; the context given is the commands'.
+func TestRunStreamsInjected(t *testing.T) {
+	var out, errs bytes.Buffer
+	if got := runCLI(context.Background(), []string{"--study", t.TempDir(), "scan"}, &out, &errs); got != exitError {
+		t.Errorf("scan outside a study: exit %d, want %d", got, exitError)
+	}
+	if !strings.HasPrefix(errs.String(), "quorate: ") || out.Len() != 0 {
+		t.Errorf("stderr %q, stdout %q", errs.String(), out.String())
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	dir := filepath.Join(t.TempDir(), "st")
+	if got := runCLI(context.Background(), []string{"--quiet", "init", dir, "--archive", t.TempDir()}, &out, &errs); got != exitOK {
+		t.Fatalf("init: exit %d: %s", got, errs.String())
+	}
+	errs.Reset()
+	if got := runCLI(ctx, []string{"--quiet", "--study", dir, "scan"}, &out, &errs); got != exitError || !strings.Contains(errs.String(), context.Canceled.Error()) {
+		t.Errorf("scan under a cancelled context: exit %d, stderr %q", got, errs.String())
+	}
 }

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"io"
@@ -44,14 +45,14 @@ probability), consensus/agreement.json and consensus/agreement.md.`,
 			if !cmd.Flags().Changed("seed") {
 				seed = s.Config.Seed
 			}
-			return runMerge(g, s, args, seed)
+			return runMerge(cmd.Context(), g, s, args, seed)
 		},
 	}
 	cmd.Flags().Uint64Var(&seed, "seed", 0, "seed of the bootstrap intervals (default: study.yaml seed)")
 	return cmd
 }
 
-func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
+func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, seed uint64) error {
 	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
 	if err != nil {
 		return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
@@ -81,7 +82,7 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 	if err != nil {
 		return err
 	}
-	res, err := merge.Run(merge.Options{Files: files, Manifest: m, Key: key,
+	res, err := merge.Run(ctx, merge.Options{Files: files, Manifest: m, Key: key,
 		ReturnsDir: s.Path(study.ReturnsDir), ConsensusDir: s.Path(study.ConsensusDir), SubjectOf: subjectOf,
 		Quorum: s.Config.Panel.Quorum, Tie: tie, Bootstrap: s.Config.Tuning.Bootstrap, Seed: seed, Level: 0.95})
 	var rej *merge.RejectedError
