@@ -31,17 +31,24 @@ func (e *OptionError) Error() string {
 type NotEmptyError struct{ Dir string }
 
 func (e *NotEmptyError) Error() string {
-	return fmt.Sprintf("export: %s exists and is not empty: choose another folder or replace it (the old one is moved aside, not deleted)", e.Dir)
+	return fmt.Sprintf("export: %s exists and is not empty", e.Dir)
 }
+
+// The inputs an export cannot do without, as MissingStepError names them.
+const (
+	InputIndex     = "archive index"
+	InputDraw      = "draw"
+	InputRatings   = "ratings"
+	InputConsensus = "consensus"
+)
 
 // MissingStepError reports that an earlier study step has not produced its table yet.
 type MissingStepError struct {
-	Table   string // what is missing: "draw", "consensus", …
-	Command string // the command that makes it
+	Table string // what is missing: InputIndex, InputDraw, InputRatings, InputConsensus
 }
 
 func (e *MissingStepError) Error() string {
-	return fmt.Sprintf("export: nothing to export: no %s yet; run %s first", e.Table, e.Command)
+	return fmt.Sprintf("export: nothing to export: no %s yet", e.Table)
 }
 
 // ReferenceError reports a drawn event that cannot be placed in a recording.

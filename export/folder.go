@@ -16,11 +16,11 @@ import (
 // MarkerFile marks a folder as a finished export. An export is written into a hidden
 // sibling folder, marked last, and renamed into place, so that a folder at the target
 // is either a whole, marked export or not there at all (a run killed half-way leaves
-// only the hidden sibling, removed by the next run). --replace moves aside only a
+// only the hidden sibling, removed by the next run). Replace moves aside only a
 // folder that carries this marker.
 const MarkerFile = ".quorate-export.json"
 
-// NotExportError reports a folder that --replace will not move: it holds no export's
+// NotExportError reports a folder that Replace will not move: it holds no export's
 // marker, or it is (or holds) a folder that must never move.
 type NotExportError struct {
 	Dir    string

@@ -37,11 +37,11 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	}
 	switch {
 	case len(o.Recordings) == 0:
-		return nil, &MissingStepError{Table: "archive index", Command: "quorate scan"}
+		return nil, &MissingStepError{Table: InputIndex}
 	case len(o.Draw) == 0:
-		return nil, &MissingStepError{Table: "draw", Command: "quorate draw"}
+		return nil, &MissingStepError{Table: InputDraw}
 	case len(o.Consensus) == 0:
-		return nil, &MissingStepError{Table: "consensus", Command: "quorate merge"}
+		return nil, &MissingStepError{Table: InputConsensus}
 	}
 	events, err := buildEvents(&o)
 	if err != nil {

@@ -1,6 +1,7 @@
 package tuning
 
 import (
+	"errors"
 	"fmt"
 	"strings"
 )
@@ -17,12 +18,21 @@ func (e *InputError) Error() string {
 	return fmt.Sprintf("tuning: event %d (%s): %s: %s", e.Index, e.EventID, e.Field, e.Msg)
 }
 
-// NoDataError reports that there is nothing to tune on.
+// Sentinels of the missing inputs, wrapped by NoDataError.
+var (
+	ErrNoEvents    = errors.New("no events to tune on")
+	ErrNoReference = errors.New("no event has a reference standard")
+)
+
+// NoDataError reports that there is nothing to tune on; Err, when set, is the
+// sentinel naming the missing input (ErrNoEvents, ErrNoReference).
 type NoDataError struct {
 	Msg string
+	Err error
 }
 
 func (e *NoDataError) Error() string { return "tuning: " + e.Msg }
+func (e *NoDataError) Unwrap() error { return e.Err }
 
 // SingleClassError reports a reference standard with only one class, for
 // which no sensitivity/specificity pair and no ROC curve exist.

@@ -110,6 +110,12 @@ func runImport(ctx context.Context, g *globals, s *study.Study, f *importFlags, 
 	for _, n := range res.Notes {
 		g.log.Warn("import-events", "note", n)
 	}
+	for _, r := range res.Rejected {
+		if r.Field == "recording" {
+			g.log.Warn("import-events", "hint", recordingHint)
+			break
+		}
+	}
 	if err := s.Record(study.Entry{Version: Version, Command: "import-events", Argv: g.argv,
 		Inputs: append(s.Hash(files...), s.Hash(indexPath)...), Outputs: s.Hash(res.Dir),
 		Notes: map[string]any{"source": res.Source, "read": res.Read, "kept": res.Kept, "merged": res.Merged, "rejected": len(res.Rejected)}}); err != nil {

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -133,11 +132,6 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
 		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir),
 		Montages: packet.FirstMontage(packet.DefaultMontages(items[0].Electrodes), c.Signal.Montage), Filters: &filters})
-	var exists *packet.ExistsError
-	if errors.As(err, &exists) {
-		// The domain names no flags; the command does.
-		return fmt.Errorf("%s already exists: add --replace to move the earlier packets aside (they are kept)", exists.Path)
-	}
 	if err != nil {
 		return err
 	}

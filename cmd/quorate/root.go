@@ -143,6 +143,7 @@ func runCLI(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	if err == nil {
 		return exitOK
 	}
+	err = withHint(err)
 	fmt.Fprintln(g.errOut(), "quorate:", err)
 	var ue usageError
 	var we warningsError

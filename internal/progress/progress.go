@@ -1,5 +1,5 @@
 // Package progress shows a progress bar on long work, only when a person is watching:
-// never with --quiet and never when standard error is not a terminal (CI logs, pipes).
+// never when quiet is asked for and never when standard error is not a terminal (CI logs, pipes).
 package progress
 
 import (

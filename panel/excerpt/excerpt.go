@@ -35,7 +35,7 @@ type Options struct {
 type MissingError struct{ Paths []string }
 
 func (e *MissingError) Error() string {
-	return fmt.Sprintf("%d recording(s) of the draw are missing from the archive since the scan: %v (run quorate scan, or restore them)", len(e.Paths), e.Paths)
+	return fmt.Sprintf("%d recording(s) of the draw are missing from the archive since the scan: %v", len(e.Paths), e.Paths)
 }
 
 // DefaultContextS is the context shown on either side of the rated window; the

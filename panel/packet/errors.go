@@ -23,5 +23,5 @@ type ExistsError struct {
 }
 
 func (e *ExistsError) Error() string {
-	return fmt.Sprintf("packet: %s already exists (set Replace to move it aside)", e.Path)
+	return fmt.Sprintf("packet: %s already exists", e.Path)
 }

@@ -74,7 +74,10 @@ type savedDesign struct {
 }
 
 // ErrDrawExists is returned when a draw exists and neither TopUp nor Replace is set.
-var ErrDrawExists = errors.New("a draw already exists; use --top-up N to add events or --replace to start over (the old draw is kept beside the new one)")
+var ErrDrawExists = errors.New("a draw already exists")
+
+// ErrNoDraw is returned when TopUp is set and there is no draw to add to.
+var ErrNoDraw = errors.New("no draw to top up")
 
 // Run draws events (and background controls) and writes draw.parquet, design.json and
 // strata.csv. An existing draw is never silently replaced.
@@ -95,10 +98,10 @@ func Run(ctx context.Context, o Options) (*RunResult, error) {
 		return nil, fmt.Errorf("%s: %w", out, ErrDrawExists)
 	}
 	if !exists && o.TopUp > 0 {
-		return nil, fmt.Errorf("%s: no draw to top up; run a first draw without --top-up", out)
+		return nil, fmt.Errorf("%s: %w", out, ErrNoDraw)
 	}
 	if len(o.Candidates) == 0 {
-		return nil, errors.New("no candidates: run quorate detect or quorate import-events first")
+		return nil, candidate.ErrNoCandidates
 	}
 	f := FrameOf(o.Candidates)
 	onset := make(map[string]float64, len(o.Candidates))

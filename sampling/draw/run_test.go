@@ -205,3 +205,17 @@ func TestRunCancelled(t *testing.T) {
 		t.Errorf("%s written under a cancelled context", DrawFile)
 	}
 }
+
+// The missing inputs of a draw are sentinels in the domain's words.
+func TestRunMissingInputs(t *testing.T) {
+	cands, recs := runFixture()
+	specs, _ := ParseStrata("region")
+	d := Design{Strata: specs, Alloc: Allocation{Method: Equal, N: 10}, Seed: 1}
+	if _, err := Run(context.Background(), Options{Recordings: recs, OutDir: t.TempDir(), Design: d}); !errors.Is(err, candidate.ErrNoCandidates) {
+		t.Errorf("no candidates: %v", err)
+	}
+	_, err := Run(context.Background(), Options{Candidates: cands, Recordings: recs, OutDir: t.TempDir(), Design: d, TopUp: 5})
+	if !errors.Is(err, ErrNoDraw) || strings.Contains(err.Error(), "--") {
+		t.Errorf("top-up without a draw: %v, want ErrNoDraw without flags", err)
+	}
+}

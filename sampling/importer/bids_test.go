@@ -122,7 +122,7 @@ func TestRunBIDS(t *testing.T) {
 	g := writeFile(t, dir, "sub-99_task-x_events.tsv", "onset\tduration\n1\t0\n")
 	o.Files, o.BIDSRecordings = []string{g}, nil
 	res, err = Run(context.Background(), o)
-	if err != nil || len(res.Rejected) != 1 || !strings.Contains(res.Rejected[0].Want, "--recording") {
+	if err != nil || len(res.Rejected) != 1 || !strings.Contains(res.Rejected[0].Want, "a recording given for the file") || res.Rejected[0].Field != "recording" {
 		t.Fatalf("unmatched: %v %+v", err, res.Rejected)
 	}
 }

@@ -65,7 +65,7 @@ type ExistsError struct {
 }
 
 func (e *ExistsError) Error() string {
-	return fmt.Sprintf("%s already holds an import of this source: set Replace (--replace) to overwrite it", e.Dir)
+	return fmt.Sprintf("%s already holds an import of this source", e.Dir)
 }
 
 // MeasureError reports a Measure function that broke its contract or failed.

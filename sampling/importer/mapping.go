@@ -37,7 +37,7 @@ type Mapping struct {
 // mappingKeys are the keys ParseMapping accepts, in the order they are documented.
 var mappingKeys = []string{"recording", "onset", "channel", "score", "onset-format"}
 
-// ParseMapping parses the --map flag:
+// ParseMapping parses a column mapping:
 //
 //	recording=COL,onset=COL,channel=COL,score=COL[,onset-format=seconds|clock]
 //
