@@ -390,7 +390,7 @@ func writtenColumns(t *testing.T, dir, format string) map[string][]string {
 	case "bids":
 		tsvHeader("bids-events", "sub-*/eeg/*_events.tsv")
 		tsvHeader("bids-channels", "sub-*/eeg/*_channels.tsv")
-		tsvHeader("bids-participants", "participants.tsv")
+		tsvHeader("bids-participants", ParticipantsFile)
 	}
 	pq("epochs", EpochsFile)
 	return out

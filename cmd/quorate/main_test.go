@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"os"
 	"path/filepath"
 	"strings"
@@ -58,7 +59,7 @@ func TestInitScanStrict(t *testing.T) {
 	if got := execute([]string{"--quiet", "--strict", "--study", dir, "scan"}); got != exitWarnings {
 		t.Errorf("scan --strict with a bad file: exit %d, want %d", got, exitWarnings)
 	}
-	f, err := os.Open(filepath.Join(dir, "provenance.jsonl"))
+	f, err := os.Open(filepath.Join(dir, study.ProvenanceFile))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -53,7 +53,7 @@ probability), consensus/agreement.json and consensus/agreement.md.`,
 }
 
 func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, seed uint64) error {
-	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, packet.ManifestFile))
 	if err != nil {
 		return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
 	}
@@ -64,9 +64,9 @@ func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, s
 		return err
 	}
 	if m.Study != s.Config.Study.ID {
-		return fmt.Errorf("%s belongs to study %s, not to this study (%s)", s.Path(study.PacketsDir, "manifest.json"), m.Study, s.Config.Study.ID)
+		return fmt.Errorf("%s belongs to study %s, not to this study (%s)", s.Path(study.PacketsDir, packet.ManifestFile), m.Study, s.Config.Study.ID)
 	}
-	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, packet.KeyFile))
 	if err != nil {
 		return err
 	}
@@ -158,7 +158,7 @@ func newStatusCmd(g *globals) *cobra.Command {
 				return err
 			}
 			if err := s.Record(study.Entry{Version: Version, Command: "status", Argv: g.argv,
-				Inputs: s.Hash(s.Path(study.PacketsDir, "manifest.json"), s.Path(study.ReturnsDir, merge.LedgerFile)),
+				Inputs: s.Hash(s.Path(study.PacketsDir, packet.ManifestFile), s.Path(study.ReturnsDir, merge.LedgerFile)),
 				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate, "owed": st.Owed, "refused": len(st.Refused), "damaged": len(st.Damaged)}}); err != nil {
 				return err
 			}
@@ -213,11 +213,11 @@ func panelReadiness(s *study.Study, evs []consensus.Event, agr *consensus.Agreem
 
 // studyStatus reads the packets, the key, the returns and the consensus inputs.
 func studyStatus(s *study.Study) (merge.Status, error) {
-	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, packet.ManifestFile))
 	if err != nil {
 		return merge.Status{}, fmt.Errorf("no packets yet (run quorate packets first): %w", err)
 	}
-	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, packet.KeyFile))
 	if err != nil {
 		return merge.Status{}, err
 	}

@@ -156,6 +156,6 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 		c := perPacket[p.Packet]
 		fmt.Fprintf(g.stdout, "  %-16s %d items (%d hidden duplicates): %s (%.1f MB) and %s\n", p.Rater, c[0], c[1], p.Page, float64(p.PageBytes)/1e6, p.Sheet)
 	}
-	fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, "key.parquet"))
+	fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, packet.KeyFile))
 	return g.finish(len(warns))
 }
