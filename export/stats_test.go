@@ -145,7 +145,7 @@ func TestBadInput(t *testing.T) {
 	o := f.opts
 	o.To, o.Format = filepath.Join(t.TempDir(), "x"), "xlsx"
 	_, err := Run(context.Background(), o)
-	var fe *FormatError
+	var fe *formatError
 	if !errors.As(err, &fe) || fe.Got != "xlsx" || !strings.Contains(err.Error(), "parquet, csv, bids") {
 		t.Errorf("unknown format: %v", err)
 	}
@@ -158,13 +158,13 @@ func TestBadInput(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err = Run(context.Background(), o)
-	var ne *NotEmptyError
+	var ne *notEmptyError
 	if !errors.As(err, &ne) {
 		t.Errorf("non-empty folder: %v", err)
 	}
 	// Replace moves only an earlier export: a folder without the marker stays.
 	o.Replace = true
-	var nx *NotExportError
+	var nx *notExportError
 	if _, err := Run(context.Background(), o); !errors.As(err, &nx) {
 		t.Errorf("replace of a folder that is not an export: %v", err)
 	}
@@ -211,8 +211,8 @@ func TestBadInput(t *testing.T) {
 
 	o = f.opts
 	o.To, o.Format, o.EpochMontage = filepath.Join(t.TempDir(), "z"), "csv", "laplacian"
-	var oe *OptionError
-	if _, err := Run(context.Background(), o); !errors.As(err, &oe) {
+	var oe *optionError
+	if _, err := Run(context.Background(), o); !errors.As(err, &oe) || !errors.Is(err, ErrOption) {
 		t.Errorf("unknown montage: %v", err)
 	}
 }

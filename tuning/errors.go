@@ -6,6 +6,13 @@ import (
 	"strings"
 )
 
+// Sentinels of this package's errors, for errors.Is: every error it returns for
+// unusable input matches one of them.
+var (
+	ErrSingleClass = errors.New("tuning: the reference standard has one class only")
+	ErrUnknownIDs  = errors.New("tuning: reference ids unknown to the study")
+)
+
 // InputError reports an event whose field cannot be used.
 type InputError struct {
 	Index   int    // position in Options.Events
@@ -17,6 +24,12 @@ type InputError struct {
 func (e *InputError) Error() string {
 	return fmt.Sprintf("tuning: event %d (%s): %s: %s", e.Index, e.EventID, e.Field, e.Msg)
 }
+
+// ErrInput is matched by errors.Is on a InputError.
+var ErrInput = errors.New("tuning: unusable event")
+
+// Unwrap gives ErrInput.
+func (e *InputError) Unwrap() error { return ErrInput }
 
 // Sentinels of the missing inputs, wrapped by NoDataError.
 var (
@@ -34,17 +47,20 @@ type NoDataError struct {
 func (e *NoDataError) Error() string { return "tuning: " + e.Msg }
 func (e *NoDataError) Unwrap() error { return e.Err }
 
-// SingleClassError reports a reference standard with only one class, for
+// singleClassError reports a reference standard with only one class, for
 // which no sensitivity/specificity pair and no ROC curve exist.
-type SingleClassError struct {
+type singleClassError struct {
 	Reference string
 	Class     string // "IED" or "not IED": the only class present
 	N         int    // events with a reference
 }
 
-func (e *SingleClassError) Error() string {
+func (e *singleClassError) Error() string {
 	return fmt.Sprintf("tuning: every one of the %d events with a reference (%s) is %s: no ROC curve or operating point is possible; rate events of both classes", e.N, e.Reference, e.Class)
 }
+
+// Unwrap gives ErrSingleClass, for errors.Is.
+func (e *singleClassError) Unwrap() error { return ErrSingleClass }
 
 // ReferenceError reports a field of an external reference file that cannot be
 // read, in the manner of encoding/csv's ParseError.
@@ -62,15 +78,21 @@ func (e *ReferenceError) Error() string {
 	return fmt.Sprintf("tuning: reference %s, row %d, field %s: %s", e.File, e.Row, e.Field, e.Msg)
 }
 
-// UnknownIDsError lists ids of an external reference file that match no event
+// ErrReference is matched by errors.Is on a ReferenceError.
+var ErrReference = errors.New("tuning: unreadable external reference")
+
+// Unwrap gives ErrReference.
+func (e *ReferenceError) Unwrap() error { return ErrReference }
+
+// unknownIDsError lists ids of an external reference file that match no event
 // or subject of the study.
-type UnknownIDsError struct {
+type unknownIDsError struct {
 	File   string
 	Column string // "event_id" or "subject_key"
 	IDs    []string
 }
 
-func (e *UnknownIDsError) Error() string {
+func (e *unknownIDsError) Error() string {
 	const show = 10
 	ids := e.IDs
 	more := ""
@@ -80,3 +102,6 @@ func (e *UnknownIDsError) Error() string {
 	}
 	return fmt.Sprintf("tuning: reference %s: %d unknown %s value(s): %s%s", e.File, len(e.IDs), e.Column, strings.Join(ids, ", "), more)
 }
+
+// Unwrap gives ErrUnknownIDs, for errors.Is.
+func (e *unknownIDsError) Unwrap() error { return ErrUnknownIDs }

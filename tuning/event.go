@@ -159,7 +159,7 @@ func prepare(o *Options) (*evset, int, error) {
 		if pos > 0 {
 			cl = "IED"
 		}
-		return nil, 0, &SingleClassError{Reference: o.ReferenceName, Class: cl, N: s.n()}
+		return nil, 0, &singleClassError{Reference: o.ReferenceName, Class: cl, N: s.n()}
 	}
 	return s, excluded, nil
 }

@@ -70,7 +70,7 @@ func TestRunErrors(t *testing.T) {
 	for i := range ev {
 		ev[i].Reference = 1
 	}
-	var sc *SingleClassError
+	var sc *singleClassError
 	if _, err := Run(ctx, Options{Events: ev}); !errors.As(err, &sc) || sc.Class != "IED" {
 		t.Errorf("single class: %v", err)
 	}

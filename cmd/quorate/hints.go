@@ -30,6 +30,7 @@ var sentinelHints = []struct {
 	{merge.ErrNoManifest, "run quorate packets first"},
 	{tuning.ErrNoEvents, "run quorate merge first"},
 	{tuning.ErrNoReference, "run quorate merge first, or choose another --reference"},
+	{export.ErrNotEmpty, "choose another --to, or add --replace (the old folder is moved aside, not deleted)"},
 }
 
 // stepOf is the command that makes each table an export needs.
@@ -52,7 +53,6 @@ func hintFor(err error) string {
 		packets  *packet.ExistsError
 		imported *importer.ExistsError
 		gone     *excerpt.MissingError
-		notEmpty *export.NotEmptyError
 	)
 	switch {
 	case errors.As(err, &missing) && stepOf[missing.Table] != "":
@@ -63,8 +63,6 @@ func hintFor(err error) string {
 		return "add --replace to overwrite it"
 	case errors.As(err, &gone):
 		return "run quorate scan, or restore them"
-	case errors.As(err, &notEmpty):
-		return "choose another --to, or add --replace (the old folder is moved aside, not deleted)"
 	}
 	return ""
 }

@@ -79,6 +79,9 @@ func (e *RejectedError) Error() string {
 	return fmt.Sprintf("%d file(s) refused, nothing of them was merged:\n%s", len(e.Errs), strings.Join(msgs, "\n"))
 }
 
+// Unwrap gives each refused file's error, for errors.Is and errors.As.
+func (e *RejectedError) Unwrap() []error { return e.Errs }
+
 // ErrNoManifest is returned when there are no packets to check returns against.
 var ErrNoManifest = errors.New("no packet manifest: returns cannot be checked")
 

@@ -153,7 +153,7 @@ func Run(ctx context.Context, o Options) (*RunResult, error) {
 		}
 		if o.Controls > 0 {
 			ctl, m, err := drawControls(o, o.Controls)
-			var ce *ControlError
+			var ce *controlError
 			if errors.As(err, &ce) && m < o.Controls {
 				// Fewer eligible epochs than asked for: take them all, as a stratum smaller
 				// than its allocation is taken whole, and say so.

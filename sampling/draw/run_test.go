@@ -121,9 +121,9 @@ func TestRunRefusesUnknownColumn(t *testing.T) {
 	specs, _ := ParseStrata("loudness:q4")
 	_, err := Run(context.Background(), Options{Candidates: cands, Recordings: recs, OutDir: t.TempDir(),
 		Design: Design{Strata: specs, Alloc: Allocation{Method: Equal, N: 10}, Seed: 1}})
-	var ce *ColumnError
+	var ce *columnError
 	if !errors.As(err, &ce) {
-		t.Fatalf("err = %v, want a ColumnError listing the columns", err)
+		t.Fatalf("err = %v, want a columnError listing the columns", err)
 	}
 }
 

@@ -61,7 +61,7 @@ func TestReadBIDS(t *testing.T) {
 		{"onset\tduration\n", "trial_type"}, // the pattern needs trial_type
 	} {
 		_, _, _, err := readBIDS(strings.NewReader(c.header+"1\t1\n"), "h.tsv", Mapping{}, pattern, 0, "", "")
-		if ce := as[*ColumnError](t, err); ce.Column != c.col {
+		if ce := as[*columnError](t, err); ce.Column != c.col {
 			t.Errorf("%q: column %q, want %q", c.header, ce.Column, c.col)
 		}
 	}
