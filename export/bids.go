@@ -26,6 +26,14 @@ const (
 	BIDSTask    = "clinical"
 )
 
+// File names the BIDS specification fixes at the top of a dataset ("Modality agnostic
+// files").
+const (
+	DatasetDescriptionFile = "dataset_description.json"
+	ParticipantsFile       = "participants.tsv"
+	ParticipantsJSON       = "participants.json"
+)
+
 // BIDSLabel makes a BIDS label from a subject key: labels may hold only letters and
 // digits (BIDS specification, "Common principles": entity labels are alphanumeric).
 func BIDSLabel(subjectKey string) string {
@@ -74,7 +82,7 @@ func bidsChannelTable() Table {
 }
 
 func bidsParticipantTable() Table {
-	t := Table{Name: "bids-participants", File: "participants.tsv", Description: "One row per subject with drawn events."}
+	t := Table{Name: "bids-participants", File: ParticipantsFile, Description: "One row per subject with drawn events."}
 	for _, n := range []string{"participant_id", "subject_key"} {
 		t.Columns = append(t.Columns, Column{Name: n, Type: "string", Description: bidsParticipantDocs[n].desc})
 	}
@@ -175,7 +183,7 @@ func writeBIDS(dir string, o *Options, events []EventRow) ([]string, error) {
 		"GeneratedBy": []map[string]string{{"Name": "quorate",
 			"Description": "Expert-panel labels, detector features and design weights of drawn sharp transients."}},
 	}
-	if err := putJSON("dataset_description.json", desc); err != nil {
+	if err := putJSON(DatasetDescriptionFile, desc); err != nil {
 		return nil, err
 	}
 	if err := put(".bidsignore", func(w io.Writer) error {
@@ -256,7 +264,7 @@ func writeBIDS(dir string, o *Options, events []EventRow) ([]string, error) {
 	for _, l := range labels {
 		prows = append(prows, []string{"sub-" + l, subjects[l]})
 	}
-	if err := put("participants.tsv", func(w io.Writer) error {
+	if err := put(ParticipantsFile, func(w io.Writer) error {
 		return writeTSV(w, []string{"participant_id", "subject_key"}, prows)
 	}); err != nil {
 		return nil, err
@@ -265,7 +273,7 @@ func writeBIDS(dir string, o *Options, events []EventRow) ([]string, error) {
 	for _, c := range bidsParticipantTable().Columns {
 		pj[c.Name] = map[string]string{"Description": c.Description}
 	}
-	if err := putJSON("participants.json", pj); err != nil {
+	if err := putJSON(ParticipantsJSON, pj); err != nil {
 		return nil, err
 	}
 	sort.Strings(files)

@@ -89,7 +89,7 @@ func TestBIDSEventsRules(t *testing.T) {
 		t.Errorf("%d event rows, want %d", rowsSeen, len(f.opts.Draw))
 	}
 	var desc map[string]any
-	b, _ = os.ReadFile(filepath.Join(dir, "dataset_description.json"))
+	b, _ = os.ReadFile(filepath.Join(dir, DatasetDescriptionFile))
 	if err := json.Unmarshal(b, &desc); err != nil {
 		t.Fatal(err)
 	}

@@ -10,12 +10,15 @@ import (
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 )
 
-// DateShiftError reports a subject without a date offset when dates are to be shifted.
-type DateShiftError struct{ SubjectKey string }
+// dateShiftError reports a subject without a date offset when dates are to be shifted.
+type dateShiftError struct{ SubjectKey string }
 
-func (e *DateShiftError) Error() string {
+func (e *dateShiftError) Error() string {
 	return fmt.Sprintf("export: shifting dates: no offset for subject %s", e.SubjectKey)
 }
+
+// Unwrap gives ErrReference, for errors.Is.
+func (e *dateShiftError) Unwrap() error { return ErrReference }
 
 func ptr[T any](v T) *T { return &v }
 
@@ -82,10 +85,10 @@ func buildEvents(o *Options) ([]EventRow, error) {
 		if c := cand[d.EventID]; c != nil {
 			fillCandidate(&e, c)
 		} else if d.Kind != "control" {
-			return nil, &ReferenceError{EventID: d.EventID, Field: "candidate", Value: d.EventID}
+			return nil, &referenceError{EventID: d.EventID, Field: "candidate", Value: d.EventID}
 		}
 		if e.RecordingID == "" || !recs[e.RecordingID] {
-			return nil, &ReferenceError{EventID: d.EventID, Field: "recording_id", Value: e.RecordingID}
+			return nil, &referenceError{EventID: d.EventID, Field: "recording_id", Value: e.RecordingID}
 		}
 		if e.Channels == nil {
 			e.Channels = []string{} // a control involves no channel in particular
@@ -211,7 +214,7 @@ func buildRecordings(o *Options) ([]RecordingRow, error) {
 		if o.ShiftDates {
 			days, ok := o.DateShiftDays[r.SubjectKey]
 			if !ok {
-				return nil, &DateShiftError{SubjectKey: r.SubjectKey}
+				return nil, &dateShiftError{SubjectKey: r.SubjectKey}
 			}
 			row.StartDate, row.DateShifted = ptr(midnight.AddDate(0, 0, days)), true
 		} else {

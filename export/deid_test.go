@@ -126,7 +126,7 @@ func TestLeakCheckFindsPlantedName(t *testing.T) {
 	o := f.opts
 	o.Comments = true
 	dir, _ := runExport(t, o, "parquet", false)
-	if got := parquetLeaks(t, filepath.Join(dir, "ratings.parquet")); len(got) == 0 {
+	if got := parquetLeaks(t, filepath.Join(dir, RatingsFile+".parquet")); len(got) == 0 {
 		t.Error("planted comment not found in ratings.parquet values")
 	}
 	o.Format = "csv"

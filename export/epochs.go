@@ -55,12 +55,12 @@ func writeEpochs(ctx context.Context, w io.Writer, o *Options, kind montage.Kind
 			}
 			var err error
 			if ep, err = openEpocher(o, recs[e.RecordingID], kind); err != nil {
-				return st, &EpochError{EventID: e.EventID, RecordingID: e.RecordingID, Err: err}
+				return st, &epochError{EventID: e.EventID, RecordingID: e.RecordingID, Err: err}
 			}
 		}
 		rows, padded, err := ep.epoch(e, o.EpochWindowS)
 		if err != nil {
-			return st, &EpochError{EventID: e.EventID, RecordingID: e.RecordingID, Err: err}
+			return st, &epochError{EventID: e.EventID, RecordingID: e.RecordingID, Err: err}
 		}
 		if _, err := pw.Write(rows); err != nil {
 			return st, err

@@ -1,71 +1,109 @@
 package export
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
 )
 
-// FormatError reports an unknown export format.
-type FormatError struct {
+// Sentinels of this package's errors, for errors.Is: every error it returns for
+// unusable input matches one of them.
+var (
+	ErrOption    = errors.New("export: unusable option")
+	ErrNotEmpty  = errors.New("export: folder not empty")
+	ErrNotExport = errors.New("export: folder is not an earlier export")
+	ErrReference = errors.New("export: broken link between tables")
+)
+
+// formatError reports an unknown export format.
+type formatError struct {
 	Got     string
 	Allowed []string
 }
 
-func (e *FormatError) Error() string {
+func (e *formatError) Error() string {
 	return fmt.Sprintf("export: format %q: want one of %s", e.Got, strings.Join(e.Allowed, ", "))
 }
 
-// OptionError reports an invalid option value.
-type OptionError struct {
+// Unwrap gives ErrOption, for errors.Is.
+func (e *formatError) Unwrap() error { return ErrOption }
+
+// optionError reports an invalid option value.
+type optionError struct {
 	Option string
 	Value  string
 	Want   string
 }
 
-func (e *OptionError) Error() string {
+func (e *optionError) Error() string {
 	return fmt.Sprintf("export: %s %q: want %s", e.Option, e.Value, e.Want)
 }
 
-// NotEmptyError reports an export folder that already holds files.
-type NotEmptyError struct{ Dir string }
+// Unwrap gives ErrOption, for errors.Is.
+func (e *optionError) Unwrap() error { return ErrOption }
 
-func (e *NotEmptyError) Error() string {
-	return fmt.Sprintf("export: %s exists and is not empty: choose another folder or replace it (the old one is moved aside, not deleted)", e.Dir)
+// notEmptyError reports an export folder that already holds files.
+type notEmptyError struct{ Dir string }
+
+func (e *notEmptyError) Error() string {
+	return fmt.Sprintf("export: %s exists and is not empty", e.Dir)
 }
+
+// Unwrap gives ErrNotEmpty, for errors.Is.
+func (e *notEmptyError) Unwrap() error { return ErrNotEmpty }
+
+// The inputs an export cannot do without, as MissingStepError names them.
+const (
+	InputIndex     = "archive index"
+	InputDraw      = "draw"
+	InputRatings   = "ratings"
+	InputConsensus = "consensus"
+)
 
 // MissingStepError reports that an earlier study step has not produced its table yet.
 type MissingStepError struct {
-	Table   string // what is missing: "draw", "consensus", …
-	Command string // the command that makes it
+	Table string // what is missing: InputIndex, InputDraw, InputRatings, InputConsensus
 }
 
 func (e *MissingStepError) Error() string {
-	return fmt.Sprintf("export: nothing to export: no %s yet; run %s first", e.Table, e.Command)
+	return fmt.Sprintf("export: nothing to export: no %s yet", e.Table)
 }
 
-// ReferenceError reports a drawn event that cannot be placed in a recording.
-type ReferenceError struct {
+// ErrMissingInput is matched by errors.Is on a MissingStepError.
+var ErrMissingInput = errors.New("export: an input table is missing")
+
+// Unwrap gives ErrMissingInput.
+func (e *MissingStepError) Unwrap() error { return ErrMissingInput }
+
+// referenceError reports a drawn event that cannot be placed in a recording.
+type referenceError struct {
 	EventID string
 	Field   string // the missing link: "candidate", "recording_id", "date shift", …
 	Value   string
 }
 
-func (e *ReferenceError) Error() string {
+func (e *referenceError) Error() string {
 	return fmt.Sprintf("export: event %s: %s %q not found", e.EventID, e.Field, e.Value)
 }
 
-// EpochError reports a recording whose samples could not be read for an epoch.
-type EpochError struct {
+// Unwrap gives ErrReference, for errors.Is.
+func (e *referenceError) Unwrap() error { return ErrReference }
+
+// epochError reports a recording whose samples could not be read for an epoch.
+type epochError struct {
 	EventID     string
 	RecordingID string
 	Err         error
 }
 
-func (e *EpochError) Error() string {
+func (e *epochError) Error() string {
 	return fmt.Sprintf("export: epochs: event %s, recording %s: %v", e.EventID, e.RecordingID, e.Err)
 }
 
-func (e *EpochError) Unwrap() error { return e.Err }
+// Is makes errors.Is(err, ErrReference) true.
+func (e *epochError) Is(target error) bool { return target == ErrReference }
+
+func (e *epochError) Unwrap() error { return e.Err }
 
 func formatFloat(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }

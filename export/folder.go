@@ -16,20 +16,23 @@ import (
 // MarkerFile marks a folder as a finished export. An export is written into a hidden
 // sibling folder, marked last, and renamed into place, so that a folder at the target
 // is either a whole, marked export or not there at all (a run killed half-way leaves
-// only the hidden sibling, removed by the next run). --replace moves aside only a
+// only the hidden sibling, removed by the next run). Replace moves aside only a
 // folder that carries this marker.
 const MarkerFile = ".quorate-export.json"
 
-// NotExportError reports a folder that --replace will not move: it holds no export's
+// notExportError reports a folder that Replace will not move: it holds no export's
 // marker, or it is (or holds) a folder that must never move.
-type NotExportError struct {
+type notExportError struct {
 	Dir    string
 	Reason string
 }
 
-func (e *NotExportError) Error() string {
+func (e *notExportError) Error() string {
 	return fmt.Sprintf("export: %s %s; it is left where it is: choose another folder", e.Dir, e.Reason)
 }
+
+// Unwrap gives ErrNotExport, for errors.Is.
+func (e *notExportError) Unwrap() error { return ErrNotExport }
 
 // staging is an export being written into a hidden sibling of its target.
 type staging struct {
@@ -51,7 +54,7 @@ func stage(dir string, replace bool, protect []string) (*staging, error) {
 	}
 	for _, p := range protect {
 		if within(p, dir) {
-			return nil, &NotExportError{Dir: dir, Reason: "is or holds " + p + ", which an export never touches"}
+			return nil, &notExportError{Dir: dir, Reason: "is or holds " + p + ", which an export never touches"}
 		}
 	}
 	entries, err := os.ReadDir(dir)
@@ -60,10 +63,10 @@ func stage(dir string, replace bool, protect []string) (*staging, error) {
 	case err != nil:
 		return nil, err
 	case !replace:
-		return nil, &NotEmptyError{Dir: dir}
+		return nil, &notEmptyError{Dir: dir}
 	default:
 		if _, err := os.Lstat(filepath.Join(dir, MarkerFile)); err != nil {
-			return nil, &NotExportError{Dir: dir, Reason: "holds no " + MarkerFile + " (it is not an earlier export)"}
+			return nil, &notExportError{Dir: dir, Reason: "holds no " + MarkerFile + " (it is not an earlier export)"}
 		}
 	}
 	tmp, err := os.MkdirTemp(parent, "."+base+".tmp-")

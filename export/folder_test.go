@@ -25,7 +25,7 @@ func TestReplaceNeverMovesProtected(t *testing.T) {
 		o := f.opts
 		o.To, o.Format, o.Replace, o.Protect = to, "csv", true, []string{archive, studyDir}
 		_, err := Run(context.Background(), o)
-		var nx *NotExportError
+		var nx *notExportError
 		if !errors.As(err, &nx) {
 			t.Errorf("--to %s --replace: %v, want a refusal", to, err)
 		}

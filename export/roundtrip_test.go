@@ -115,7 +115,7 @@ func checkAgainstSource(t *testing.T, o *Options, got []EventRow) {
 func TestParquetReadBack(t *testing.T) {
 	f := newFixture(t, 40)
 	dir, res := runExport(t, f.opts, "parquet", false)
-	events := readParquet[EventRow](t, filepath.Join(dir, "events.parquet"))
+	events := readParquet[EventRow](t, filepath.Join(dir, EventsFile+".parquet"))
 	checkAgainstSource(t, &f.opts, events)
 	built, _ := buildEvents(&f.opts)
 	for i := range built {
@@ -126,7 +126,7 @@ func TestParquetReadBack(t *testing.T) {
 			}
 		}
 	}
-	ratings := readParquet[RatingRow](t, filepath.Join(dir, "ratings.parquet"))
+	ratings := readParquet[RatingRow](t, filepath.Join(dir, RatingsFile+".parquet"))
 	if len(ratings) != len(f.opts.Ratings) || res.Ratings != len(ratings) {
 		t.Fatalf("%d ratings, want %d", len(ratings), len(f.opts.Ratings))
 	}
@@ -138,7 +138,7 @@ func TestParquetReadBack(t *testing.T) {
 			t.Fatal("comment exported without Options.Comments")
 		}
 	}
-	recs := readParquet[RecordingRow](t, filepath.Join(dir, "recordings.parquet"))
+	recs := readParquet[RecordingRow](t, filepath.Join(dir, RecordingsFile+".parquet"))
 	if len(recs) != 2 || recs[0].StartDate != nil || recs[0].StartYear == nil {
 		t.Fatalf("recordings: %+v", recs)
 	}
@@ -160,8 +160,8 @@ func TestParquetLogicalTypes(t *testing.T) {
 	f.opts.ShiftDates = true
 	dir, _ := runExport(t, f.opts, "parquet", false)
 	for name, want := range map[string]map[string]string{
-		"events.parquet":     {"c1_sharpness": "optional", "subject_key": "dict", "ref_panel": "optional", "c1_met": "optional"},
-		"recordings.parquet": {"start_date": "date", "recording_id": "dict"},
+		EventsFile + ".parquet":     {"c1_sharpness": "optional", "subject_key": "dict", "ref_panel": "optional", "c1_met": "optional"},
+		RecordingsFile + ".parquet": {"start_date": "date", "recording_id": "dict"},
 	} {
 		fh, err := os.Open(filepath.Join(dir, name))
 		if err != nil {
@@ -380,9 +380,9 @@ func writtenColumns(t *testing.T, dir, format string) map[string][]string {
 	}
 	switch format {
 	case "parquet":
-		pq("events", "events.parquet")
-		pq("ratings", "ratings.parquet")
-		pq("recordings", "recordings.parquet")
+		pq("events", EventsFile+".parquet")
+		pq("ratings", RatingsFile+".parquet")
+		pq("recordings", RecordingsFile+".parquet")
 	case "csv":
 		for _, n := range []string{"events", "ratings", "recordings"} {
 			out[n] = readCSV(t, filepath.Join(dir, n+".csv"))[0]
@@ -390,7 +390,7 @@ func writtenColumns(t *testing.T, dir, format string) map[string][]string {
 	case "bids":
 		tsvHeader("bids-events", "sub-*/eeg/*_events.tsv")
 		tsvHeader("bids-channels", "sub-*/eeg/*_channels.tsv")
-		tsvHeader("bids-participants", "participants.tsv")
+		tsvHeader("bids-participants", ParticipantsFile)
 	}
 	pq("epochs", EpochsFile)
 	return out

@@ -16,10 +16,10 @@ import (
 // touching the folder, so a refused export leaves no trace.
 func Run(ctx context.Context, o Options) (*Result, error) {
 	if !slices.Contains(Formats, o.Format) {
-		return nil, &FormatError{Got: o.Format, Allowed: Formats}
+		return nil, &formatError{Got: o.Format, Allowed: Formats}
 	}
 	if o.To == "" {
-		return nil, &OptionError{Option: "to", Value: "", Want: "an export folder"}
+		return nil, &optionError{Option: "to", Value: "", Want: "an export folder"}
 	}
 	if o.EpochWindowS == 0 {
 		o.EpochWindowS = DefaultEpochWindowS
@@ -29,19 +29,19 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	}
 	kind, err := montage.ParseKind(o.EpochMontage)
 	if err != nil {
-		return nil, &OptionError{Option: "epoch montage", Value: o.EpochMontage,
+		return nil, &optionError{Option: "epoch montage", Value: o.EpochMontage,
 			Want: "referential, common-average, longitudinal-bipolar or transverse-bipolar"}
 	}
 	if !(o.EpochWindowS > 0) {
-		return nil, &OptionError{Option: "epoch window", Value: formatFloat(o.EpochWindowS), Want: "a positive number of seconds"}
+		return nil, &optionError{Option: "epoch window", Value: formatFloat(o.EpochWindowS), Want: "a positive number of seconds"}
 	}
 	switch {
 	case len(o.Recordings) == 0:
-		return nil, &MissingStepError{Table: "archive index", Command: "quorate scan"}
+		return nil, &MissingStepError{Table: InputIndex}
 	case len(o.Draw) == 0:
-		return nil, &MissingStepError{Table: "draw", Command: "quorate draw"}
+		return nil, &MissingStepError{Table: InputDraw}
 	case len(o.Consensus) == 0:
-		return nil, &MissingStepError{Table: "consensus", Command: "quorate merge"}
+		return nil, &MissingStepError{Table: InputConsensus}
 	}
 	events, err := buildEvents(&o)
 	if err != nil {

@@ -145,7 +145,7 @@ func TestBadInput(t *testing.T) {
 	o := f.opts
 	o.To, o.Format = filepath.Join(t.TempDir(), "x"), "xlsx"
 	_, err := Run(context.Background(), o)
-	var fe *FormatError
+	var fe *formatError
 	if !errors.As(err, &fe) || fe.Got != "xlsx" || !strings.Contains(err.Error(), "parquet, csv, bids") {
 		t.Errorf("unknown format: %v", err)
 	}
@@ -158,13 +158,13 @@ func TestBadInput(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err = Run(context.Background(), o)
-	var ne *NotEmptyError
+	var ne *notEmptyError
 	if !errors.As(err, &ne) {
 		t.Errorf("non-empty folder: %v", err)
 	}
 	// Replace moves only an earlier export: a folder without the marker stays.
 	o.Replace = true
-	var nx *NotExportError
+	var nx *notExportError
 	if _, err := Run(context.Background(), o); !errors.As(err, &nx) {
 		t.Errorf("replace of a folder that is not an export: %v", err)
 	}
@@ -188,20 +188,21 @@ func TestBadInput(t *testing.T) {
 	}
 
 	for _, c := range []struct {
-		drop func(*Options)
-		cmd  string
+		drop  func(*Options)
+		table string
 	}{
-		{func(o *Options) { o.Draw = nil }, "quorate draw"},
-		{func(o *Options) { o.Consensus = nil }, "quorate merge"},
-		{func(o *Options) { o.Recordings = nil }, "quorate scan"},
+		{func(o *Options) { o.Draw = nil }, InputDraw},
+		{func(o *Options) { o.Consensus = nil }, InputConsensus},
+		{func(o *Options) { o.Recordings = nil }, InputIndex},
 	} {
 		o := f.opts
 		o.To, o.Format = filepath.Join(t.TempDir(), "y"), "parquet"
 		c.drop(&o)
 		_, err := Run(context.Background(), o)
 		var me *MissingStepError
-		if !errors.As(err, &me) || me.Command != c.cmd || !strings.Contains(err.Error(), "run "+c.cmd) {
-			t.Errorf("missing step: %v, want run %s", err, c.cmd)
+		// The domain names the missing table, not the command that makes it.
+		if !errors.As(err, &me) || me.Table != c.table || !strings.Contains(err.Error(), "no "+c.table) || strings.Contains(err.Error(), "quorate") {
+			t.Errorf("missing step: %v, want one naming %s", err, c.table)
 		}
 		if _, err := os.Stat(o.To); err == nil {
 			t.Error("a refused export created its folder")
@@ -210,8 +211,8 @@ func TestBadInput(t *testing.T) {
 
 	o = f.opts
 	o.To, o.Format, o.EpochMontage = filepath.Join(t.TempDir(), "z"), "csv", "laplacian"
-	var oe *OptionError
-	if _, err := Run(context.Background(), o); !errors.As(err, &oe) {
+	var oe *optionError
+	if _, err := Run(context.Background(), o); !errors.As(err, &oe) || !errors.Is(err, ErrOption) {
 		t.Errorf("unknown montage: %v", err)
 	}
 }

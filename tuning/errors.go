@@ -1,8 +1,16 @@
 package tuning
 
 import (
+	"errors"
 	"fmt"
 	"strings"
+)
+
+// Sentinels of this package's errors, for errors.Is: every error it returns for
+// unusable input matches one of them.
+var (
+	ErrSingleClass = errors.New("tuning: the reference standard has one class only")
+	ErrUnknownIDs  = errors.New("tuning: reference ids unknown to the study")
 )
 
 // InputError reports an event whose field cannot be used.
@@ -17,24 +25,42 @@ func (e *InputError) Error() string {
 	return fmt.Sprintf("tuning: event %d (%s): %s: %s", e.Index, e.EventID, e.Field, e.Msg)
 }
 
-// NoDataError reports that there is nothing to tune on.
+// ErrInput is matched by errors.Is on a InputError.
+var ErrInput = errors.New("tuning: unusable event")
+
+// Unwrap gives ErrInput.
+func (e *InputError) Unwrap() error { return ErrInput }
+
+// Sentinels of the missing inputs, wrapped by NoDataError.
+var (
+	ErrNoEvents    = errors.New("no events to tune on")
+	ErrNoReference = errors.New("no event has a reference standard")
+)
+
+// NoDataError reports that there is nothing to tune on; Err, when set, is the
+// sentinel naming the missing input (ErrNoEvents, ErrNoReference).
 type NoDataError struct {
 	Msg string
+	Err error
 }
 
 func (e *NoDataError) Error() string { return "tuning: " + e.Msg }
+func (e *NoDataError) Unwrap() error { return e.Err }
 
-// SingleClassError reports a reference standard with only one class, for
+// singleClassError reports a reference standard with only one class, for
 // which no sensitivity/specificity pair and no ROC curve exist.
-type SingleClassError struct {
+type singleClassError struct {
 	Reference string
 	Class     string // "IED" or "not IED": the only class present
 	N         int    // events with a reference
 }
 
-func (e *SingleClassError) Error() string {
+func (e *singleClassError) Error() string {
 	return fmt.Sprintf("tuning: every one of the %d events with a reference (%s) is %s: no ROC curve or operating point is possible; rate events of both classes", e.N, e.Reference, e.Class)
 }
+
+// Unwrap gives ErrSingleClass, for errors.Is.
+func (e *singleClassError) Unwrap() error { return ErrSingleClass }
 
 // ReferenceError reports a field of an external reference file that cannot be
 // read, in the manner of encoding/csv's ParseError.
@@ -52,15 +78,21 @@ func (e *ReferenceError) Error() string {
 	return fmt.Sprintf("tuning: reference %s, row %d, field %s: %s", e.File, e.Row, e.Field, e.Msg)
 }
 
-// UnknownIDsError lists ids of an external reference file that match no event
+// ErrReference is matched by errors.Is on a ReferenceError.
+var ErrReference = errors.New("tuning: unreadable external reference")
+
+// Unwrap gives ErrReference.
+func (e *ReferenceError) Unwrap() error { return ErrReference }
+
+// unknownIDsError lists ids of an external reference file that match no event
 // or subject of the study.
-type UnknownIDsError struct {
+type unknownIDsError struct {
 	File   string
 	Column string // "event_id" or "subject_key"
 	IDs    []string
 }
 
-func (e *UnknownIDsError) Error() string {
+func (e *unknownIDsError) Error() string {
 	const show = 10
 	ids := e.IDs
 	more := ""
@@ -70,3 +102,6 @@ func (e *UnknownIDsError) Error() string {
 	}
 	return fmt.Sprintf("tuning: reference %s: %d unknown %s value(s): %s%s", e.File, len(e.IDs), e.Column, strings.Join(ids, ", "), more)
 }
+
+// Unwrap gives ErrUnknownIDs, for errors.Is.
+func (e *unknownIDsError) Unwrap() error { return ErrUnknownIDs }

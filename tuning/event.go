@@ -94,7 +94,7 @@ func (s *evset) subset(idx []int) *evset {
 // prepare validates the events and keeps those with a reference.
 func prepare(o *Options) (*evset, int, error) {
 	if len(o.Events) == 0 {
-		return nil, 0, &NoDataError{Msg: "no events to tune on: run quorate merge first"}
+		return nil, 0, &NoDataError{Msg: ErrNoEvents.Error(), Err: ErrNoEvents}
 	}
 	s := &evset{hours: o.RecordingHours}
 	if !(o.RecordingHours > 0) {
@@ -140,13 +140,13 @@ func prepare(o *Options) (*evset, int, error) {
 		s.candidate = append(s.candidate, e.Kind != "control")
 	}
 	if !consensus {
-		return nil, 0, &NoDataError{Msg: "no event has a panel consensus or a reference: run quorate merge first"}
+		return nil, 0, &NoDataError{Msg: "no event has a panel consensus or a reference", Err: ErrNoReference}
 	}
 	if s.n() == 0 && len(s.controls) > 0 {
 		return nil, 0, &NoDataError{Msg: "only background controls have a reference: no candidate event to tune on"}
 	}
 	if s.n() == 0 {
-		return nil, 0, &NoDataError{Msg: "no event has a reference standard (all unknown): run quorate merge first, or choose another reference"}
+		return nil, 0, &NoDataError{Msg: "no event has a reference standard (all unknown)", Err: ErrNoReference}
 	}
 	pos := 0
 	for _, t := range s.truth {
@@ -159,7 +159,7 @@ func prepare(o *Options) (*evset, int, error) {
 		if pos > 0 {
 			cl = "IED"
 		}
-		return nil, 0, &SingleClassError{Reference: o.ReferenceName, Class: cl, N: s.n()}
+		return nil, 0, &singleClassError{Reference: o.ReferenceName, Class: cl, N: s.n()}
 	}
 	return s, excluded, nil
 }

@@ -51,7 +51,7 @@ func ReferenceFromDS(p float64) int8 {
 // subject key. It returns the reference of every event the file names.
 //
 // Unreadable cells give a *ReferenceError with the row and field; ids that
-// match no event (or subject) give an *UnknownIDsError listing them.
+// match no event (or subject) give an *unknownIDsError listing them.
 func ReadExternalReference(path string, eventIDs []string, subjectOf map[string]string) (map[string]int8, error) {
 	f, err := os.Open(path)
 	if err != nil {
@@ -128,7 +128,7 @@ func ReadExternalReference(path string, eventIDs []string, subjectOf map[string]
 	}
 	if len(unknown) > 0 {
 		slices.Sort(unknown)
-		return nil, &UnknownIDsError{File: path, Column: key, IDs: unknown}
+		return nil, &unknownIDsError{File: path, Column: key, IDs: unknown}
 	}
 	return out, nil
 }

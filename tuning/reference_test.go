@@ -39,7 +39,7 @@ func TestReadExternalReference(t *testing.T) {
 
 func TestReadExternalReferenceErrors(t *testing.T) {
 	_, err := ReadExternalReference(writeCSV(t, "event_id,reference\ne1,1\nx9,0\ne3,1\nx1,1\n"), refEvents, refSubjects)
-	var ue *UnknownIDsError
+	var ue *unknownIDsError
 	if !errors.As(err, &ue) || !reflect.DeepEqual(ue.IDs, []string{"x1", "x9"}) || ue.Column != "event_id" {
 		t.Errorf("unknown ids: %v", err)
 	}

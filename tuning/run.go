@@ -14,7 +14,7 @@ import (
 // o.Policy.
 //
 // Errors: *NoDataError when there are no events or no consensus,
-// *InputError for an unusable event, *SingleClassError when the reference
+// *InputError for an unusable event, *singleClassError when the reference
 // has one class, and an error wrapping *accuracy.NoPointError (with the
 // closest rules) when no automatic rule satisfies the policy. Results are
 // deterministic given the events, options and seed.

@@ -54,7 +54,8 @@ func TestKSweepMonotone(t *testing.T) {
 func TestRunErrors(t *testing.T) {
 	ctx := context.Background()
 	var nd *NoDataError
-	if _, err := Run(ctx, Options{}); !errors.As(err, &nd) || !strings.Contains(err.Error(), "quorate merge") {
+	// The error names the missing input, in the domain's words: the command adds its hint.
+	if _, err := Run(ctx, Options{}); !errors.As(err, &nd) || !errors.Is(err, ErrNoEvents) || !strings.Contains(err.Error(), "no events") || strings.Contains(err.Error(), "quorate") {
 		t.Errorf("no events: %v", err)
 	}
 	ev := simulate(rand.New(rand.NewPCG(1, 1)), 4, 5, 1)
@@ -62,14 +63,14 @@ func TestRunErrors(t *testing.T) {
 		ev[i].Reference = -1
 		ev[i].Majority = [6]int8{-1, -1, -1, -1, -1, -1}
 	}
-	if _, err := Run(ctx, Options{Events: ev}); !errors.As(err, &nd) || !strings.Contains(err.Error(), "quorate merge") {
+	if _, err := Run(ctx, Options{Events: ev}); !errors.As(err, &nd) || !errors.Is(err, ErrNoReference) || !strings.Contains(err.Error(), "consensus") {
 		t.Errorf("no consensus: %v", err)
 	}
 	ev = simulate(rand.New(rand.NewPCG(1, 1)), 4, 5, 1)
 	for i := range ev {
 		ev[i].Reference = 1
 	}
-	var sc *SingleClassError
+	var sc *singleClassError
 	if _, err := Run(ctx, Options{Events: ev}); !errors.As(err, &sc) || sc.Class != "IED" {
 		t.Errorf("single class: %v", err)
 	}

@@ -130,7 +130,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	df := &drawFlags{n: min(f.n, len(cands)), strata: c.Draw.Strata, allocation: c.Draw.Allocation, sdColumn: "score",
 		min: c.Draw.MinPerStratum, capN: c.Draw.SubjectCap, controls: c.Draw.Controls, epochS: c.Draw.ControlEpochS,
 		distS: c.Draw.ControlDistS, seed: f.seed}
-	if err := runDraw(g, s, df); err != nil && !isWarnings(err) {
+	if err := runDraw(ctx, g, s, df); err != nil && !isWarnings(err) {
 		return err
 	}
 	step("packets")
@@ -145,11 +145,11 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 		return err
 	}
 	truthOf := demoTruth(recs, cands, truthByPath)
-	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, packet.ManifestFile))
 	if err != nil {
 		return err
 	}
-	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, packet.KeyFile))
 	if err != nil {
 		return err
 	}
@@ -174,7 +174,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	}
 	sort.Strings(paths)
 	step("merge")
-	if err := runMerge(g, s, paths, f.seed); err != nil {
+	if err := runMerge(ctx, g, s, paths, f.seed); err != nil {
 		return err
 	}
 	step("tune")
@@ -279,7 +279,7 @@ func demoSummary(w io.Writer, s *study.Study, recs []archive.Recording, cands []
 	ts := TruthCheck(op, cands, truth)
 	fmt.Fprintf(w, "            the generator's truth on all %d candidates:  sensitivity %.2f (%.2f–%.2f), specificity %.2f (%.2f–%.2f)\n",
 		ts.N, ts.Sens, ts.SensLo, ts.SensHi, ts.Spec, ts.SpecLo, ts.SpecHi)
-	fmt.Fprintf(w, "\nReport      %s\nExport      %s\nStudy       %s\n\n%s\n", s.Path(study.TuningDir, "report.html"),
+	fmt.Fprintf(w, "\nReport      %s\nExport      %s\nStudy       %s\n\n%s\n", s.Path(study.TuningDir, report.HTMLFile),
 		filepath.Join(filepath.Dir(s.Dir), "export"), s.Dir, caution)
 	return nil
 }

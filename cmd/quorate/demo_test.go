@@ -16,9 +16,14 @@ import (
 	"github.com/parquet-go/parquet-go"
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
+	"github.com/quorate-eeg/quorate/export"
 	"github.com/quorate-eeg/quorate/export/report"
 	"github.com/quorate-eeg/quorate/panel/consensus"
+	"github.com/quorate-eeg/quorate/panel/merge"
+	"github.com/quorate-eeg/quorate/panel/packet"
+	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/sampling/draw"
 	"github.com/quorate-eeg/quorate/sampling/synth"
 )
 
@@ -47,7 +52,7 @@ func snapshot(t *testing.T, dir string) map[string]string {
 		case ".json", ".jsonl", ".md", ".html":
 			b = timestamps.ReplaceAll(b, []byte("TIME"))
 		}
-		if filepath.Base(p) == "provenance.jsonl" {
+		if filepath.Base(p) == study.ProvenanceFile {
 			// The log hashes reports, and reports carry their time of writing.
 			b = stampedHashes.ReplaceAll(b, []byte(`$1"sha256":"-"`))
 		}
@@ -80,7 +85,7 @@ func TestDemoEndToEnd(t *testing.T) {
 	}
 	out := filepath.Join(t.TempDir(), "demo")
 	summary := runDemoForTest(t, out, "7")
-	for _, want := range []string{"Scanned", "Detected", "Drew", "Fleiss' kappa", "Operating", "report.html", "not a diagnostic device"} {
+	for _, want := range []string{"Scanned", "Detected", "Drew", "Fleiss' kappa", "Operating", report.HTMLFile, "not a diagnostic device"} {
 		if !strings.Contains(summary, want) {
 			t.Errorf("summary lacks %q:\n%s", want, summary)
 		}
@@ -100,26 +105,26 @@ func TestDemoEndToEnd(t *testing.T) {
 			t.Errorf("%s: %v, %d rows", path, err, pf.NumRows())
 		}
 	}
-	for _, p := range []string{"index/recordings.parquet", "draw/draw.parquet", "packets/key.parquet",
-		"consensus/ratings.parquet", "consensus/consensus.parquet", "tuning/sweep.parquet"} {
+	for _, p := range []string{filepath.Join(study.IndexDir, archive.IndexFile), filepath.Join(study.DrawDir, draw.DrawFile), filepath.Join(study.PacketsDir, packet.KeyFile),
+		filepath.Join(study.ConsensusDir, merge.RatingsFile), filepath.Join(study.ConsensusDir, merge.ConsensusFile), filepath.Join(study.TuningDir, report.SweepFile)} {
 		mustParquet(filepath.Join(st, p))
 	}
-	for _, p := range []string{"events.parquet", "ratings.parquet", "recordings.parquet"} {
+	for _, p := range []string{export.EventsFile + ".parquet", export.RatingsFile + ".parquet", export.RecordingsFile + ".parquet"} {
 		mustParquet(filepath.Join(out, "export", p))
 	}
-	for _, p := range []string{"consensus/agreement.json", "tuning/operating-point.json", "packets/manifest.json"} {
+	for _, p := range []string{filepath.Join(study.ConsensusDir, merge.AgreementJSON), filepath.Join(study.TuningDir, report.PointFile), filepath.Join(study.PacketsDir, packet.ManifestFile)} {
 		var v any
 		b, err := os.ReadFile(filepath.Join(st, p))
 		if err != nil || json.Unmarshal(b, &v) != nil {
 			t.Errorf("%s does not parse: %v", p, err)
 		}
 	}
-	f, _ := os.Open(filepath.Join(st, "index", "problems.csv"))
+	f, _ := os.Open(filepath.Join(st, study.IndexDir, archive.ProblemsFile))
 	if _, err := csv.NewReader(f).ReadAll(); err != nil {
 		t.Errorf("problems.csv: %v", err)
 	}
 	f.Close()
-	html, _ := os.ReadFile(filepath.Join(st, "tuning", "report.html"))
+	html, _ := os.ReadFile(filepath.Join(st, "tuning", report.HTMLFile))
 	if !bytes.Contains(html, []byte("not a diagnostic device")) || !bytes.Contains(html, []byte("<svg")) {
 		t.Error("report.html lacks the caution or its figures")
 	}
@@ -154,7 +159,7 @@ func TestDemoEndToEnd(t *testing.T) {
 	// 1990); observed agreement and Gwet's AC1, which is not (Gwet 2008), carry the check,
 	// and kappa must only stay above chance and below perfect.
 	var agr consensus.Agreement
-	b, _ := os.ReadFile(filepath.Join(st, study.ConsensusDir, "agreement.json"))
+	b, _ := os.ReadFile(filepath.Join(st, study.ConsensusDir, merge.AgreementJSON))
 	if err := json.Unmarshal(b, &agr); err != nil || len(agr.Questions) != 7 {
 		t.Fatalf("agreement.json: %v", err)
 	}

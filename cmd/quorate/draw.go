@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"encoding/csv"
 	"fmt"
 	"os"
@@ -58,7 +59,7 @@ epileptiform and the share the raters split on), with design weights that stay u
 				return usageError{fmt.Errorf("--top-up: got %d, want the number of events to add (at least 1)", f.topUp)}
 			}
 			applyDrawDefaults(cmd, f, s.Config)
-			return runDraw(g, s, f)
+			return runDraw(cmd.Context(), g, s, f)
 		},
 	}
 	fl := cmd.Flags()
@@ -109,7 +110,7 @@ func applyDrawDefaults(cmd *cobra.Command, f *drawFlags, c *study.Config) {
 	}
 }
 
-func runDraw(g *globals, s *study.Study, f *drawFlags) error {
+func runDraw(ctx context.Context, g *globals, s *study.Study, f *drawFlags) error {
 	if f.topUp < 0 {
 		return usageError{fmt.Errorf("--top-up: got %d, want a number of events ≥ 1", f.topUp)}
 	}
@@ -143,7 +144,7 @@ func runDraw(g *globals, s *study.Study, f *drawFlags) error {
 			return err
 		}
 	}
-	res, err := draw.Run(draw.RunOptions{
+	res, err := draw.Run(ctx, draw.Options{
 		Candidates: cands, Recordings: recs, OutDir: s.Path(study.DrawDir),
 		Design:   draw.Design{Strata: specs, Alloc: alloc, Cap: f.capN, Seed: f.seed},
 		Controls: f.controls, ControlEpochS: f.epochS, ControlDistS: f.distS,

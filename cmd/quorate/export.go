@@ -79,19 +79,19 @@ offset kept in the study. --epochs adds the raw samples around each event.`,
 func runExport(ctx context.Context, g *globals, s *study.Study, f *exportFlags) error {
 	recs, err := readIndex(s)
 	if err != nil {
-		return missingOr(err, "recordings", "quorate scan")
+		return missingOr(err, export.InputIndex)
 	}
 	rows, err := draw.ReadRows(s.Path(study.DrawDir, draw.DrawFile))
 	if err != nil {
-		return missingOr(err, "draw", "quorate draw")
+		return missingOr(err, export.InputDraw)
 	}
 	ratings, err := merge.ReadRatings(s.Path(study.ConsensusDir, merge.RatingsFile))
 	if err != nil {
-		return missingOr(err, "ratings", "quorate merge")
+		return missingOr(err, export.InputRatings)
 	}
 	cons, err := merge.ReadConsensus(s.Path(study.ConsensusDir, merge.ConsensusFile))
 	if err != nil {
-		return missingOr(err, "consensus", "quorate merge")
+		return missingOr(err, export.InputConsensus)
 	}
 	cands, err := candidate.ReadDir(s.Path(study.CandidatesDir))
 	if err != nil {
@@ -158,11 +158,12 @@ func runExport(ctx context.Context, g *globals, s *study.Study, f *exportFlags) 
 	return nil
 }
 
-// missingOr names the step that makes a table when its file is absent; any other read
-// error (a damaged file) is reported as it is, not as a missing step.
-func missingOr(err error, table, command string) error {
+// missingOr names the missing table when its file is absent (hints.go adds the
+// command that makes it); any other read error (a damaged file) is reported as it
+// is, not as a missing step.
+func missingOr(err error, table string) error {
 	if errors.Is(err, fs.ErrNotExist) {
-		return &export.MissingStepError{Table: table, Command: command}
+		return &export.MissingStepError{Table: table}
 	}
 	return err
 }

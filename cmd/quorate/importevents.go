@@ -49,7 +49,7 @@ fall outside it are listed with the reason in candidates/import=SOURCE/rejected.
 			if err != nil {
 				return err
 			}
-			return runImport(g, s, f, args)
+			return runImport(cmd.Context(), g, s, f, args)
 		},
 	}
 	fl := cmd.Flags()
@@ -65,7 +65,7 @@ fall outside it are listed with the reason in candidates/import=SOURCE/rejected.
 	return cmd
 }
 
-func runImport(g *globals, s *study.Study, f *importFlags, files []string) error {
+func runImport(ctx context.Context, g *globals, s *study.Study, f *importFlags, files []string) error {
 	var m importer.Mapping
 	if f.mapping != "" {
 		var err error
@@ -101,7 +101,7 @@ func runImport(g *globals, s *study.Study, f *importFlags, files []string) error
 		}
 		return alignRows(onsets, rows), notes, nil
 	}
-	res, err := importer.Run(context.Background(), importer.Options{Files: files, Kind: f.kind, Mapping: m, Pattern: f.pattern,
+	res, err := importer.Run(ctx, importer.Options{Files: files, Kind: f.kind, Mapping: m, Pattern: f.pattern,
 		CaseSensitive: f.caseSensitive, Recording: f.recording, BIDSRecordings: f.bidsMap, Source: f.source,
 		Recordings: recs, Roots: roots, Measure: measure, OutDir: s.Path(study.CandidatesDir), Replace: f.replace})
 	if err != nil {
@@ -109,6 +109,12 @@ func runImport(g *globals, s *study.Study, f *importFlags, files []string) error
 	}
 	for _, n := range res.Notes {
 		g.log.Warn("import-events", "note", n)
+	}
+	for _, r := range res.Rejected {
+		if r.Field == "recording" {
+			g.log.Warn("import-events", "hint", recordingHint)
+			break
+		}
 	}
 	if err := s.Record(study.Entry{Version: Version, Command: "import-events", Argv: g.argv,
 		Inputs: append(s.Hash(files...), s.Hash(indexPath)...), Outputs: s.Hash(res.Dir),

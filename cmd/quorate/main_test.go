@@ -2,7 +2,10 @@ package main
 
 import (
 	"bufio"
+	"bytes"
+	"context"
 	"encoding/json"
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"os"
 	"path/filepath"
 	"strings"
@@ -56,7 +59,7 @@ func TestInitScanStrict(t *testing.T) {
 	if got := execute([]string{"--quiet", "--strict", "--study", dir, "scan"}); got != exitWarnings {
 		t.Errorf("scan --strict with a bad file: exit %d, want %d", got, exitWarnings)
 	}
-	f, err := os.Open(filepath.Join(dir, "provenance.jsonl"))
+	f, err := os.Open(filepath.Join(dir, study.ProvenanceFile))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -90,4 +93,26 @@ func TestInitScanStrict(t *testing.T) {
 		}
 		return nil
 	})
+}
+
+// runCLI takes the output streams as arguments: an error and its hint reach the
+// injected stderr and nothing reaches stdout; the context given is the commands'.
+func TestRunStreamsInjected(t *testing.T) {
+	var out, errs bytes.Buffer
+	if got := runCLI(context.Background(), []string{"--study", t.TempDir(), "scan"}, &out, &errs); got != exitError {
+		t.Errorf("scan outside a study: exit %d, want %d", got, exitError)
+	}
+	if !strings.HasPrefix(errs.String(), "quorate: ") || out.Len() != 0 {
+		t.Errorf("stderr %q, stdout %q", errs.String(), out.String())
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	dir := filepath.Join(t.TempDir(), "st")
+	if got := runCLI(context.Background(), []string{"--quiet", "init", dir, "--archive", t.TempDir()}, &out, &errs); got != exitOK {
+		t.Fatalf("init: exit %d: %s", got, errs.String())
+	}
+	errs.Reset()
+	if got := runCLI(ctx, []string{"--quiet", "--study", dir, "scan"}, &out, &errs); got != exitError || !strings.Contains(errs.String(), context.Canceled.Error()) {
+		t.Errorf("scan under a cancelled context: exit %d, stderr %q", got, errs.String())
+	}
 }

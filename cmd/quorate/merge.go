@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"io"
@@ -44,15 +45,15 @@ probability), consensus/agreement.json and consensus/agreement.md.`,
 			if !cmd.Flags().Changed("seed") {
 				seed = s.Config.Seed
 			}
-			return runMerge(g, s, args, seed)
+			return runMerge(cmd.Context(), g, s, args, seed)
 		},
 	}
 	cmd.Flags().Uint64Var(&seed, "seed", 0, "seed of the bootstrap intervals (default: study.yaml seed)")
 	return cmd
 }
 
-func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
-	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, seed uint64) error {
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, packet.ManifestFile))
 	if err != nil {
 		return fmt.Errorf("no packets yet (run quorate packets first): %w", err)
 	}
@@ -63,9 +64,9 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 		return err
 	}
 	if m.Study != s.Config.Study.ID {
-		return fmt.Errorf("%s belongs to study %s, not to this study (%s)", s.Path(study.PacketsDir, "manifest.json"), m.Study, s.Config.Study.ID)
+		return fmt.Errorf("%s belongs to study %s, not to this study (%s)", s.Path(study.PacketsDir, packet.ManifestFile), m.Study, s.Config.Study.ID)
 	}
-	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, packet.KeyFile))
 	if err != nil {
 		return err
 	}
@@ -81,7 +82,7 @@ func runMerge(g *globals, s *study.Study, files []string, seed uint64) error {
 	if err != nil {
 		return err
 	}
-	res, err := merge.Run(merge.Options{Files: files, Manifest: m, Key: key,
+	res, err := merge.Run(ctx, merge.Options{Files: files, Manifest: m, Key: key,
 		ReturnsDir: s.Path(study.ReturnsDir), ConsensusDir: s.Path(study.ConsensusDir), SubjectOf: subjectOf,
 		Quorum: s.Config.Panel.Quorum, Tie: tie, Bootstrap: s.Config.Tuning.Bootstrap, Seed: seed, Level: 0.95})
 	var rej *merge.RejectedError
@@ -157,7 +158,7 @@ func newStatusCmd(g *globals) *cobra.Command {
 				return err
 			}
 			if err := s.Record(study.Entry{Version: Version, Command: "status", Argv: g.argv,
-				Inputs: s.Hash(s.Path(study.PacketsDir, "manifest.json"), s.Path(study.ReturnsDir, merge.LedgerFile)),
+				Inputs: s.Hash(s.Path(study.PacketsDir, packet.ManifestFile), s.Path(study.ReturnsDir, merge.LedgerFile)),
 				Notes:  map[string]any{"consensus_up_to_date": st.ConsensusUpToDate, "owed": st.Owed, "refused": len(st.Refused), "damaged": len(st.Damaged)}}); err != nil {
 				return err
 			}
@@ -212,11 +213,11 @@ func panelReadiness(s *study.Study, evs []consensus.Event, agr *consensus.Agreem
 
 // studyStatus reads the packets, the key, the returns and the consensus inputs.
 func studyStatus(s *study.Study) (merge.Status, error) {
-	m, err := packet.ReadManifest(s.Path(study.PacketsDir, "manifest.json"))
+	m, err := packet.ReadManifest(s.Path(study.PacketsDir, packet.ManifestFile))
 	if err != nil {
 		return merge.Status{}, fmt.Errorf("no packets yet (run quorate packets first): %w", err)
 	}
-	key, err := packet.ReadKey(s.Path(study.PacketsDir, "key.parquet"))
+	key, err := packet.ReadKey(s.Path(study.PacketsDir, packet.KeyFile))
 	if err != nil {
 		return merge.Status{}, err
 	}

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -133,11 +132,6 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
 		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir),
 		Montages: packet.FirstMontage(packet.DefaultMontages(items[0].Electrodes), c.Signal.Montage), Filters: &filters})
-	var exists *packet.ExistsError
-	if errors.As(err, &exists) {
-		// The domain names no flags; the command does.
-		return fmt.Errorf("%s already exists: add --replace to move the earlier packets aside (they are kept)", exists.Path)
-	}
 	if err != nil {
 		return err
 	}
@@ -162,6 +156,6 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 		c := perPacket[p.Packet]
 		fmt.Fprintf(g.stdout, "  %-16s %d items (%d hidden duplicates): %s (%.1f MB) and %s\n", p.Rater, c[0], c[1], p.Page, float64(p.PageBytes)/1e6, p.Sheet)
 	}
-	fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, "key.parquet"))
+	fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, packet.KeyFile))
 	return g.finish(len(warns))
 }

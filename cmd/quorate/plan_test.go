@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"github.com/quorate-eeg/quorate/sampling/draw"
 	"os"
 	"path/filepath"
 	"strings"
@@ -49,7 +50,7 @@ func TestPlanAndAdaptiveTopUpOnDemo(t *testing.T) {
 	if _, err := run("draw", "--top-up", "40", "--adaptive"); err != nil {
 		t.Fatal(err)
 	}
-	b, err := os.ReadFile(filepath.Join(st, "draw", "design.json"))
+	b, err := os.ReadFile(filepath.Join(st, "draw", draw.DesignFile))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -126,15 +126,24 @@ panel, merge the ratings into a gold standard, tune, and export.
 	return root
 }
 
-// execute runs the CLI and maps the outcome to an exit code.
+// execute runs the CLI on the process's standard streams and maps the outcome to an exit code.
 func execute(args []string) int {
-	g := &globals{argv: append([]string{"quorate"}, args...), stdout: os.Stdout, stderr: os.Stderr}
+	return runCLI(context.Background(), args, os.Stdout, os.Stderr)
+}
+
+// runCLI runs the CLI with its output on stdout and its logs, warnings and errors
+// on stderr, under ctx, and maps the outcome to an exit code.
+func runCLI(ctx context.Context, args []string, stdout, stderr io.Writer) int {
+	g := &globals{argv: append([]string{"quorate"}, args...), stdout: stdout, stderr: stderr}
 	root := newRoot(g)
 	root.SetArgs(args)
-	cmd, err := root.ExecuteContextC(context.Background())
+	root.SetOut(stdout)
+	root.SetErr(stderr)
+	cmd, err := root.ExecuteContextC(ctx)
 	if err == nil {
 		return exitOK
 	}
+	err = withHint(err)
 	fmt.Fprintln(g.errOut(), "quorate:", err)
 	var ue usageError
 	var we warningsError

@@ -76,5 +76,5 @@ func readIndex(s *study.Study) ([]archive.Recording, error) {
 
 // progress makes a bar unless --quiet is set or standard error is not a terminal.
 func (g *globals) progress(total int, desc string) progress.Bar {
-	return progress.New(total, desc, g.quiet)
+	return progress.NewTo(g.errOut(), total, desc, g.quiet)
 }

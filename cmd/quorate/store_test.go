@@ -185,7 +185,7 @@ func TestTuneAgreementAndLeftovers(t *testing.T) {
 	st := demoStudy(t)
 	left := filepath.Join(st, study.TuningDir, ".report.html.tmp-4242")
 	os.WriteFile(left, []byte("half"), 0o644)
-	agr := filepath.Join(st, study.ConsensusDir, "agreement.json")
+	agr := filepath.Join(st, study.ConsensusDir, merge.AgreementJSON)
 	b, _ := os.ReadFile(agr)
 	os.WriteFile(agr, b[:len(b)/2], 0o644)
 	if _, err := run(t, "--study", st, "--force", "tune"); err == nil || !strings.Contains(err.Error(), agr) {

@@ -177,7 +177,7 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	m := fp.InSample
 	fmt.Fprintf(g.stdout, "  in sample, optimistic (the rule was chosen on these events): sensitivity %s, specificity %s, PPV %s (design-weighted)\n",
 		estimate(m.Design.Sens), estimate(m.Design.Spec), estimate(m.Design.PPV))
-	fmt.Fprintf(g.stdout, "Report: %s\n", s.Path(study.TuningDir, "report.html"))
+	fmt.Fprintf(g.stdout, "Report: %s\n", s.Path(study.TuningDir, report.HTMLFile))
 	return g.finish(len(res.Warnings))
 }
 

@@ -1,8 +1,9 @@
 // Package progress shows a progress bar on long work, only when a person is watching:
-// never with --quiet and never when standard error is not a terminal (CI logs, pipes).
+// never when quiet is asked for and never when standard error is not a terminal (CI logs, pipes).
 package progress
 
 import (
+	"io"
 	"os"
 
 	"github.com/schollz/progressbar/v3"
@@ -23,11 +24,18 @@ func (Silent) Finish() {}
 // New returns a bar for total units described by desc, or Silent when quiet is set or
 // standard error is not a terminal.
 func New(total int, desc string, quiet bool) Bar {
-	if quiet || total <= 0 || !isTerminal(os.Stderr) {
+	return NewTo(os.Stderr, total, desc, quiet)
+}
+
+// NewTo returns a bar drawn on w, or Silent when quiet is set or w is not a terminal
+// (a buffer in a test, a pipe, a file).
+func NewTo(w io.Writer, total int, desc string, quiet bool) Bar {
+	f, ok := w.(*os.File)
+	if quiet || total <= 0 || !ok || !isTerminal(f) {
 		return Silent{}
 	}
 	return &bar{progressbar.NewOptions(total,
-		progressbar.OptionSetWriter(os.Stderr),
+		progressbar.OptionSetWriter(f),
 		progressbar.OptionSetDescription(desc),
 		progressbar.OptionShowCount(),
 		progressbar.OptionSetPredictTime(true),

@@ -9,12 +9,12 @@ import (
 
 func TestNewTableErrors(t *testing.T) {
 	_, err := NewTable([][]int{{0, 1}, {1, 2}}, 2)
-	var ce *CellError
+	var ce *cellError
 	if !errors.As(err, &ce) || ce.Item != 1 || ce.Rater != 1 || ce.Value != 2 {
 		t.Errorf("out-of-range cell: got %v", err)
 	}
 	_, err = NewTable([][]int{{0, 1}, {1}}, 2)
-	var se *ShapeError
+	var se *shapeError
 	if !errors.As(err, &se) || se.Item != 1 || se.Got != 1 || se.Want != 2 {
 		t.Errorf("ragged row: got %v", err)
 	}
@@ -193,7 +193,7 @@ func TestBootstrapDeterministic(t *testing.T) {
 func TestBootstrapErrors(t *testing.T) {
 	tab, clusters := clusteredTable(3, 2, 3, 1)
 	c := tab.Counts()
-	var ae *ArgError
+	var ae *argError
 	if _, err := Bootstrap(c, clusters[:2], nil, 10, 1, 0.95); !errors.As(err, &ae) || ae.Arg != "clusters" {
 		t.Errorf("short clusters: %v", err)
 	}

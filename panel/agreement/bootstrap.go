@@ -111,13 +111,13 @@ func BootstrapTable(t Table, clusters []int, stat func(Table) float64, reps int,
 
 func checkBootstrap(items int, clusters []int, reps int, level float64) (dense []int, n int, err error) {
 	if len(clusters) != items {
-		return nil, 0, &ArgError{Arg: "clusters", Index: -1, Reason: fmt.Sprintf("length %d, want one per item (%d)", len(clusters), items)}
+		return nil, 0, &argError{Arg: "clusters", Index: -1, Reason: fmt.Sprintf("length %d, want one per item (%d)", len(clusters), items)}
 	}
 	if reps < 1 {
-		return nil, 0, &ArgError{Arg: "reps", Index: -1, Reason: "need at least one replicate"}
+		return nil, 0, &argError{Arg: "reps", Index: -1, Reason: "need at least one replicate"}
 	}
 	if !(level > 0 && level < 1) {
-		return nil, 0, &ArgError{Arg: "level", Index: -1, Reason: "must lie in (0,1)"}
+		return nil, 0, &argError{Arg: "level", Index: -1, Reason: "must lie in (0,1)"}
 	}
 	// Dense ids in order of first appearance keep the draws independent of
 	// how callers number subjects.
@@ -125,7 +125,7 @@ func checkBootstrap(items int, clusters []int, reps int, level float64) (dense [
 	dense = make([]int, items)
 	for i, c := range clusters {
 		if c < 0 {
-			return nil, 0, &ArgError{Arg: "clusters", Index: i, Reason: "negative cluster id"}
+			return nil, 0, &argError{Arg: "clusters", Index: i, Reason: "negative cluster id"}
 		}
 		j, ok := id[c]
 		if !ok {

@@ -32,11 +32,11 @@ func CountsFromRows(rows [][]int) (*Counts, error) {
 	c := &Counts{K: k, N: make([]int32, len(rows)*k)}
 	for i, row := range rows {
 		if len(row) != k {
-			return nil, &ShapeError{Item: i, Got: len(row), Want: k}
+			return nil, &shapeError{Item: i, Got: len(row), Want: k}
 		}
 		for j, v := range row {
 			if v < 0 {
-				return nil, &CellError{Item: i, Rater: j, Value: v, K: k}
+				return nil, &cellError{Item: i, Rater: j, Value: v, K: k}
 			}
 			c.N[i*k+j] = int32(v)
 		}

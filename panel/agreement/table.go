@@ -15,15 +15,15 @@ type Table struct {
 // Rows must all have the same length. The slice is not copied.
 func NewTable(ratings [][]int, k int) (Table, error) {
 	if k < 2 {
-		return Table{}, &ArgError{Arg: "k", Index: -1, Reason: "need at least 2 categories"}
+		return Table{}, &argError{Arg: "k", Index: -1, Reason: "need at least 2 categories"}
 	}
 	for i, row := range ratings {
 		if len(row) != len(ratings[0]) {
-			return Table{}, &ShapeError{Item: i, Got: len(row), Want: len(ratings[0])}
+			return Table{}, &shapeError{Item: i, Got: len(row), Want: len(ratings[0])}
 		}
 		for r, v := range row {
 			if v != Missing && (v < 0 || v >= k) {
-				return Table{}, &CellError{Item: i, Rater: r, Value: v, K: k}
+				return Table{}, &cellError{Item: i, Rater: r, Value: v, K: k}
 			}
 		}
 	}

@@ -1,6 +1,7 @@
 package excerpt
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"path/filepath"
@@ -35,8 +36,14 @@ type Options struct {
 type MissingError struct{ Paths []string }
 
 func (e *MissingError) Error() string {
-	return fmt.Sprintf("%d recording(s) of the draw are missing from the archive since the scan: %v (run quorate scan, or restore them)", len(e.Paths), e.Paths)
+	return fmt.Sprintf("%d recording(s) of the draw are missing from the archive since the scan: %v", len(e.Paths), e.Paths)
 }
+
+// ErrMissingRecordings is matched by errors.Is on a MissingError.
+var ErrMissingRecordings = errors.New("excerpt: drawn recordings missing from the archive")
+
+// Unwrap gives ErrMissingRecordings.
+func (e *MissingError) Unwrap() error { return ErrMissingRecordings }
 
 // DefaultContextS is the context shown on either side of the rated window; the
 // page's filters run over it, so their edge transients stay in the context.

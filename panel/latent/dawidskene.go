@@ -37,10 +37,10 @@ func (o Options) withDefaults() (Options, error) {
 		o.Smoothing = 0
 	}
 	if o.Tol < 0 || math.IsNaN(o.Tol) {
-		return o, &OptionError{Field: "Tol", Reason: "must be positive"}
+		return o, &optionError{Field: "Tol", Reason: "must be positive"}
 	}
 	if o.MaxIter < 0 {
-		return o, &OptionError{Field: "MaxIter", Reason: "must be positive"}
+		return o, &optionError{Field: "MaxIter", Reason: "must be positive"}
 	}
 	return o, nil
 }
@@ -106,7 +106,7 @@ func Fit(ratings [][]int, k int, opt Options) (*Result, error) {
 		return nil, err
 	}
 	if k < 2 {
-		return nil, &OptionError{Field: "k", Reason: "need at least 2 classes"}
+		return nil, &optionError{Field: "k", Reason: "need at least 2 classes"}
 	}
 	nItems := len(ratings)
 	nRaters := 0
@@ -115,11 +115,11 @@ func Fit(ratings [][]int, k int, opt Options) (*Result, error) {
 	}
 	for i, row := range ratings {
 		if len(row) != nRaters {
-			return nil, &ShapeError{Item: i, Got: len(row), Want: nRaters}
+			return nil, &shapeError{Item: i, Got: len(row), Want: nRaters}
 		}
 		for r, v := range row {
 			if v != Missing && (v < 0 || v >= k) {
-				return nil, &CellError{Item: i, Rater: r, Value: v, K: k}
+				return nil, &cellError{Item: i, Rater: r, Value: v, K: k}
 			}
 		}
 	}

@@ -133,15 +133,15 @@ func TestDeterministic(t *testing.T) {
 }
 
 func TestFitErrors(t *testing.T) {
-	var ce *CellError
+	var ce *cellError
 	if _, err := Fit([][]int{{0, 1}, {2, 0}}, 2, Options{}); !errors.As(err, &ce) || ce.Item != 1 || ce.Rater != 0 {
 		t.Errorf("bad class: %v", err)
 	}
-	var se *ShapeError
+	var se *shapeError
 	if _, err := Fit([][]int{{0, 1}, {0}}, 2, Options{}); !errors.As(err, &se) || se.Item != 1 {
 		t.Errorf("ragged: %v", err)
 	}
-	var oe *OptionError
+	var oe *optionError
 	if _, err := Fit([][]int{{0, 1}}, 2, Options{MaxIter: -1}); !errors.As(err, &oe) || oe.Field != "MaxIter" {
 		t.Errorf("MaxIter: %v", err)
 	}

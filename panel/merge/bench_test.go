@@ -1,6 +1,7 @@
 package merge
 
 import (
+	"context"
 	"encoding/json"
 	"fmt"
 	"math/rand/v2"
@@ -62,7 +63,7 @@ func BenchmarkMerge7x2000(b *testing.B) {
 			Bootstrap: 2000, Seed: 1, Level: 0.95}
 		os.MkdirAll(o.ReturnsDir, 0o755)
 		b.StartTimer()
-		res, err := Run(o)
+		res, err := Run(context.Background(), o)
 		if err != nil || res.Events != 1800 {
 			b.Fatalf("%v, %d events", err, res.Events)
 		}

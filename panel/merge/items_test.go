@@ -1,6 +1,7 @@
 package merge
 
 import (
+	"context"
 	"encoding/json"
 	"os"
 	"path/filepath"
@@ -71,7 +72,7 @@ func TestHalfRatedItemStaysOwed(t *testing.T) {
 		}
 	})
 	o.Files = []string{f}
-	res, err := Run(o)
+	res, err := Run(context.Background(), o)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -103,7 +104,7 @@ func TestItemLevelMerge(t *testing.T) {
 	in := t.TempDir()
 	full := writeReturn(t, in, o.Manifest, 0, func(i int) bool { return i < 2 }, "")
 	o.Files = []string{full}
-	if _, err := Run(o); err != nil {
+	if _, err := Run(context.Background(), o); err != nil {
 		t.Fatal(err)
 	}
 	first := ratingsOf(t, o, "ana")
@@ -117,7 +118,7 @@ func TestItemLevelMerge(t *testing.T) {
 		}
 	})
 	o.Files = []string{blank}
-	res, err := Run(o)
+	res, err := Run(context.Background(), o)
 	if err != nil || len(res.Superseded) != 0 {
 		t.Fatalf("blank: %v %+v", err, res)
 	}
@@ -135,7 +136,7 @@ func TestItemLevelMerge(t *testing.T) {
 		}
 	})
 	o.Files = []string{one}
-	if _, err := Run(o); err != nil {
+	if _, err := Run(context.Background(), o); err != nil {
 		t.Fatal(err)
 	}
 	got := ratingsOf(t, o, "ana")
@@ -145,7 +146,7 @@ func TestItemLevelMerge(t *testing.T) {
 	}
 	// Re-merging the full file restores its answer for item 0.
 	o.Files = []string{full}
-	res, err = Run(o)
+	res, err = Run(context.Background(), o)
 	if err != nil || len(res.Restored) != 1 || len(res.Superseded) != 1 {
 		t.Fatalf("restore: %v %+v", err, res)
 	}
@@ -172,7 +173,7 @@ func TestEditedStoredReturnRefused(t *testing.T) {
 	o := testOptions(t)
 	in := t.TempDir()
 	o.Files = []string{writeReturn(t, in, o.Manifest, 0, func(int) bool { return true }, "")}
-	res, err := Run(o)
+	res, err := Run(context.Background(), o)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -186,7 +187,7 @@ func TestEditedStoredReturnRefused(t *testing.T) {
 	}
 	o.Files = []string{writeReturn(t, in, o.Manifest, 1, func(int) bool { return true }, "")}
 	var se *StoredError
-	if _, err := Run(o); err == nil || !asStored(err, &se) {
+	if _, err := Run(context.Background(), o); err == nil || !asStored(err, &se) {
 		t.Errorf("rebuild over an edited return: %v", err)
 	}
 }
@@ -204,7 +205,7 @@ func TestStatusListsRefused(t *testing.T) {
 	in := t.TempDir()
 	bad := writeReturn(t, in, o.Manifest, 2, func(int) bool { return true }, strings.Repeat("0", 32))
 	o.Files = []string{bad}
-	if _, err := Run(o); err == nil {
+	if _, err := Run(context.Background(), o); err == nil {
 		t.Fatal("accepted a wrong check value")
 	}
 	st, _ := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
@@ -232,7 +233,7 @@ func TestBlankReturnAndSizeCap(t *testing.T) {
 	f.Truncate(returns.MaxSize + 1) // sparse: the size is there, the bytes are not
 	f.Close()
 	o.Files = []string{blank, big}
-	res, err := Run(o)
+	res, err := Run(context.Background(), o)
 	if err == nil || len(res.Rejected) != 1 || !strings.Contains(res.Rejected[0].Error(), "at most") {
 		t.Fatalf("err %v", err)
 	}
@@ -248,7 +249,7 @@ func TestLedgerWithoutItems(t *testing.T) {
 	o := testOptions(t)
 	in := t.TempDir()
 	o.Files = []string{writeReturn(t, in, o.Manifest, 0, func(int) bool { return true }, "")}
-	if _, err := Run(o); err != nil {
+	if _, err := Run(context.Background(), o); err != nil {
 		t.Fatal(err)
 	}
 	p := filepath.Join(o.ReturnsDir, LedgerFile)

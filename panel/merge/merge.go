@@ -1,6 +1,7 @@
 package merge
 
 import (
+	"context"
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
@@ -78,18 +79,26 @@ func (e *RejectedError) Error() string {
 	return fmt.Sprintf("%d file(s) refused, nothing of them was merged:\n%s", len(e.Errs), strings.Join(msgs, "\n"))
 }
 
+// Unwrap gives each refused file's error, for errors.Is and errors.As.
+func (e *RejectedError) Unwrap() []error { return e.Errs }
+
 // ErrNoManifest is returned when there are no packets to check returns against.
 var ErrNoManifest = errors.New("no packet manifest: returns cannot be checked")
 
 // Run merges the files at item level and rebuilds the consensus: a return
 // counts for the items it gives a value for, and a later return replaces an
 // earlier one only there.
-func Run(o Options) (*Result, error) {
+func Run(ctx context.Context, o Options) (*Result, error) {
 	if o.Now == nil {
 		o.Now = time.Now
 	}
 	if o.Manifest == nil {
 		return nil, ErrNoManifest
+	}
+	// Cancellation is honoured before anything is stored: once returns are
+	// being stored, the ledger must be written for them.
+	if err := ctx.Err(); err != nil {
+		return nil, err
 	}
 	ledgerPath := filepath.Join(o.ReturnsDir, LedgerFile)
 	ledger, err := ReadLedger(ledgerPath)

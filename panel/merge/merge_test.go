@@ -1,6 +1,7 @@
 package merge
 
 import (
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -85,7 +86,7 @@ func TestMergeStoresSupersedesAndRefuses(t *testing.T) {
 	f2 := writeReturn(t, in, m, 1, yes, "")
 	bad := writeReturn(t, in, m, 2, yes, strings.Repeat("0", 32))
 	o.Files = []string{f1, f2, bad}
-	res, err := Run(o)
+	res, err := Run(context.Background(), o)
 	var rej *RejectedError
 	if !errors.As(err, &rej) || len(rej.Errs) != 1 {
 		t.Fatalf("err = %v, want one refused file", err)
@@ -123,13 +124,13 @@ func TestMergeStoresSupersedesAndRefuses(t *testing.T) {
 
 	// Merging the same file again stores nothing new.
 	o.Files = []string{f1}
-	res, err = Run(o)
+	res, err = Run(context.Background(), o)
 	if err != nil || len(res.Duplicates) != 1 || len(res.Accepted) != 0 {
 		t.Fatalf("re-merge: %v %+v", err, res)
 	}
 	// A later return from ana supersedes the first; both are kept.
 	o.Files = []string{writeReturn(t, in, m, 0, func(int) bool { return false }, "")}
-	res, err = Run(o)
+	res, err = Run(context.Background(), o)
 	if err != nil || len(res.Superseded) != 1 {
 		t.Fatalf("supersede: %v %+v", err, res)
 	}
@@ -159,4 +160,19 @@ func mustLedger(t *testing.T, o Options) []Entry {
 		t.Fatal(err)
 	}
 	return l
+}
+
+// A cancelled context stops a merge before any return is stored.
+func TestRunCancelled(t *testing.T) {
+	m, key := fixture()
+	dir := t.TempDir()
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	_, err := Run(ctx, Options{Manifest: m, Key: key, ReturnsDir: filepath.Join(dir, "returns"), ConsensusDir: filepath.Join(dir, "consensus"), Quorum: 2})
+	if !errors.Is(err, context.Canceled) {
+		t.Fatalf("err %v, want context.Canceled", err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "returns")); !os.IsNotExist(err) {
+		t.Errorf("returns/ written under a cancelled context")
+	}
 }

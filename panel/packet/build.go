@@ -122,7 +122,7 @@ func Build(items []Item, opt Options) (*Result, error) {
 		if err := os.MkdirAll(dir, 0o755); err != nil {
 			return nil, err
 		}
-		w := Written{Rater: rater, Packet: pid, Dir: dir, Page: filepath.Join(dir, "review.html"), Sheet: filepath.Join(dir, "sheet.csv"), PageBytes: int64(len(html))}
+		w := Written{Rater: rater, Packet: pid, Dir: dir, Page: filepath.Join(dir, PageFile), Sheet: filepath.Join(dir, SheetFile), PageBytes: int64(len(html))}
 		if err := atomicfile.WriteBytes(w.Page, html, 0o644); err != nil {
 			return nil, err
 		}
@@ -132,14 +132,14 @@ func Build(items []Item, opt Options) (*Result, error) {
 		out.Packets = append(out.Packets, w)
 		out.Manifest.Packets = append(out.Manifest.Packets, ManifestEntry{Packet: pid, Rater: rater, Check: check, Items: codes})
 	}
-	if err := writeKey(filepath.Join(opt.OutDir, "key.parquet"), out.Key); err != nil {
+	if err := writeKey(filepath.Join(opt.OutDir, KeyFile), out.Key); err != nil {
 		return nil, err
 	}
 	mb, err := json.MarshalIndent(out.Manifest, "", "  ")
 	if err != nil {
 		return nil, err
 	}
-	if err := atomicfile.WriteBytes(filepath.Join(opt.OutDir, "manifest.json"), append(mb, '\n'), 0o644); err != nil {
+	if err := atomicfile.WriteBytes(filepath.Join(opt.OutDir, ManifestFile), append(mb, '\n'), 0o644); err != nil {
 		return nil, err
 	}
 	return out, nil
@@ -150,7 +150,7 @@ func prepareOut(opt Options) error {
 	if err := os.MkdirAll(opt.OutDir, 0o755); err != nil {
 		return err
 	}
-	names := append([]string{"key.parquet", "manifest.json"}, opt.Raters...)
+	names := append([]string{KeyFile, ManifestFile}, opt.Raters...)
 	var existing []string
 	for _, n := range names {
 		p := filepath.Join(opt.OutDir, n)
@@ -209,7 +209,7 @@ func validate(items []Item, opt Options) error {
 		if !SafeName(r) {
 			return optErr("Raters", fmt.Sprintf("%q is not a safe folder name ([A-Za-z0-9._-], 1–40 characters, not starting with a dot)", r))
 		}
-		if strings.HasPrefix(strings.ToLower(r), "key.parquet") || strings.HasPrefix(strings.ToLower(r), "manifest.json") {
+		if strings.HasPrefix(strings.ToLower(r), KeyFile) || strings.HasPrefix(strings.ToLower(r), ManifestFile) {
 			return optErr("Raters", fmt.Sprintf("%q clashes with a coordinator file", r))
 		}
 		if seen[strings.ToLower(r)] {

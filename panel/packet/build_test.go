@@ -50,7 +50,7 @@ func TestNoLeak(t *testing.T) {
 	}
 	searched := 0
 	for name, b := range files(t, dir) {
-		if name == filepath.Join("packets", "key.parquet") {
+		if name == filepath.Join("packets", KeyFile) {
 			continue // the coordinator's key is meant to hold them
 		}
 		searched++
@@ -69,7 +69,7 @@ func TestNoLeak(t *testing.T) {
 		t.Errorf("searched %d files, want 5", searched)
 	}
 	// The key, and only the key, maps codes back to events and provenance.
-	key, err := ReadKey(filepath.Join(dir, "packets", "key.parquet"))
+	key, err := ReadKey(filepath.Join(dir, "packets", KeyFile))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -136,7 +136,7 @@ func TestBuildDeterministic(t *testing.T) {
 	if _, err := Build(items, opt); err != nil {
 		t.Fatal(err)
 	}
-	if bytes.Equal(fa[filepath.Join("packets", "manifest.json")], files(t, c)[filepath.Join("packets", "manifest.json")]) {
+	if bytes.Equal(fa[filepath.Join("packets", ManifestFile)], files(t, c)[filepath.Join("packets", ManifestFile)]) {
 		t.Error("another seed gave the same manifest")
 	}
 }
@@ -193,7 +193,7 @@ func TestBuildOrdersAndKey(t *testing.T) {
 			seen[row[3]] = true
 		}
 	}
-	m, err := ReadManifest(filepath.Join(dir, "packets", "manifest.json"))
+	m, err := ReadManifest(filepath.Join(dir, "packets", ManifestFile))
 	if err != nil || len(m.Packets) != 2 || m.Study != "STUDY-T" {
 		t.Fatalf("manifest %+v, %v", m, err)
 	}
@@ -258,7 +258,7 @@ func TestBuildExistingFolder(t *testing.T) {
 	if _, err := Build(items, opt); err != nil {
 		t.Fatal(err)
 	}
-	first, _ := os.ReadFile(filepath.Join(opt.OutDir, "alice", "review.html"))
+	first, _ := os.ReadFile(filepath.Join(opt.OutDir, "alice", PageFile))
 	var ee *ExistsError
 	if _, err := Build(items, opt); !errors.As(err, &ee) {
 		t.Fatalf("second build: %v, want ExistsError", err)
@@ -269,7 +269,7 @@ func TestBuildExistingFolder(t *testing.T) {
 			t.Fatal(err)
 		}
 	}
-	kept, err := os.ReadFile(filepath.Join(opt.OutDir, "alice.replaced-1", "review.html"))
+	kept, err := os.ReadFile(filepath.Join(opt.OutDir, "alice.replaced-1", PageFile))
 	if err != nil || !bytes.Equal(kept, first) {
 		t.Errorf("old packet not kept at alice.replaced-1: %v", err)
 	}

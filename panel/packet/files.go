@@ -5,3 +5,9 @@ const (
 	KeyFile      = "key.parquet"
 	ManifestFile = "manifest.json"
 )
+
+// File names Build writes into each rater's folder.
+const (
+	PageFile  = "review.html"
+	SheetFile = "sheet.csv"
+)

@@ -13,7 +13,7 @@ func FuzzReadManifest(f *testing.F) {
 	f.Add([]byte(`{"format":"quorate-manifest","version":2}`))
 	f.Add([]byte(`[]`))
 	f.Fuzz(func(t *testing.T, b []byte) {
-		p := filepath.Join(t.TempDir(), "manifest.json")
+		p := filepath.Join(t.TempDir(), ManifestFile)
 		if err := os.WriteFile(p, b, 0o644); err != nil {
 			t.Fatal(err)
 		}

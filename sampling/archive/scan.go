@@ -53,12 +53,15 @@ type found struct {
 	ext  bool // has an EDF-family file name ending
 }
 
+// ErrNoRoots is returned when Options.Roots is empty.
+var ErrNoRoots = errors.New("no archive roots to scan")
+
 // Run scans the archive roots and writes the index. One bad file never stops a scan: it
 // becomes a row of problems.csv. Files unchanged since the previous scan (same path, size
 // and modification time) are not read again.
 func Run(ctx context.Context, o Options) (*Result, error) {
 	if len(o.Roots) == 0 {
-		return nil, errors.New("no archive roots: add them to study.yaml (archive.roots) or pass --archive")
+		return nil, ErrNoRoots
 	}
 	// A root that is not there (an unmounted share) would index as empty and wipe the
 	// index: refuse and leave the index as it was.

@@ -301,3 +301,11 @@ func TestPathsKeptApart(t *testing.T) {
 		t.Errorf("rescan: %+v %v, want the unchanged file reused", res, err)
 	}
 }
+
+// No roots is ErrNoRoots, in the domain's words (no flag, no study.yaml).
+func TestRunNoRoots(t *testing.T) {
+	_, err := Run(context.Background(), Options{IndexDir: t.TempDir()})
+	if !errors.Is(err, ErrNoRoots) || strings.Contains(err.Error(), "--") || strings.Contains(err.Error(), "study.yaml") {
+		t.Errorf("no roots: %v, want ErrNoRoots", err)
+	}
+}

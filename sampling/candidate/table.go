@@ -1,8 +1,10 @@
 package candidate
 
 import (
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"sort"
@@ -13,6 +15,9 @@ import (
 	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"github.com/quorate-eeg/quorate/internal/parquetfile"
 )
+
+// ErrNoCandidates reports a candidate folder that is missing or holds no table.
+var ErrNoCandidates = errors.New("no candidate events")
 
 // Write writes rows to path as Parquet, atomically.
 func Write(path string, rows []Row) error {
@@ -45,11 +50,14 @@ func ReadDir(dir string) ([]Row, error) {
 		}
 		return nil
 	})
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, fmt.Errorf("%s: %w", dir, ErrNoCandidates)
+	}
 	if err != nil {
 		return nil, err
 	}
 	if len(files) == 0 {
-		return nil, fmt.Errorf("no candidates in %s: run quorate detect or quorate import-events first", dir)
+		return nil, fmt.Errorf("%s: %w", dir, ErrNoCandidates)
 	}
 	sort.Strings(files)
 	var all []Row

@@ -1,6 +1,7 @@
 package design
 
 import (
+	"errors"
 	"fmt"
 	"math"
 )
@@ -38,6 +39,12 @@ func (e *FieldError) Error() string {
 	}
 	return fmt.Sprintf("design: %s[%d]: %s", e.Field, e.Index, e.Msg)
 }
+
+// ErrInput is matched by errors.Is on a FieldError.
+var ErrInput = errors.New("design: unusable sample")
+
+// Unwrap gives ErrInput.
+func (e *FieldError) Unwrap() error { return ErrInput }
 
 // Estimate is a point estimate with its estimated variance and the design
 // degrees of freedom of that variance (Sample.DF; 0 when unknown).

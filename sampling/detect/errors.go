@@ -1,6 +1,9 @@
 package detect
 
-import "fmt"
+import (
+	"errors"
+	"fmt"
+)
 
 // OptionError reports an invalid option: Field is the Options field (or the
 // Cutoffs key) and Value its offending value.
@@ -13,6 +16,12 @@ type OptionError struct {
 func (e *OptionError) Error() string {
 	return fmt.Sprintf("detect: option %s = %v: %s", e.Field, e.Value, e.Msg)
 }
+
+// ErrOption is matched by errors.Is on a OptionError.
+var ErrOption = errors.New("detect: unusable option")
+
+// Unwrap gives ErrOption.
+func (e *OptionError) Unwrap() error { return ErrOption }
 
 // RecordingError reports a recording that could not be processed at all. It
 // names the recording and, when known, the file and the stage that failed.

@@ -16,7 +16,7 @@ type Options struct {
 	OutDir     string   // the study's candidates/ folder
 	Workers    int      // recordings processed at once; 1 if < 1
 	// Shard and Shards select the recordings whose FNV-1a hash of
-	// RecordingID is Shard mod Shards (--shard i/n); Shards ≤ 1 takes all.
+	// RecordingID is Shard mod Shards (shard i of n); Shards ≤ 1 takes all.
 	Shard, Shards int
 
 	Montage      string     // a montage.ParseKind name; "common-average"

@@ -41,12 +41,12 @@ const (
 // known π > 0. Strata of size 0 get weight 0.
 func AccuracyWeights(size []int, prior []float64) ([]float64, error) {
 	if len(size) != len(prior) {
-		return nil, &AllocationError{Msg: fmt.Sprintf("%d priors for %d strata", len(prior), len(size))}
+		return nil, &allocationError{Msg: fmt.Sprintf("%d priors for %d strata", len(prior), len(size))}
 	}
 	var P, Q float64
 	for h, p := range prior {
 		if !(p >= 0 && p <= 1) {
-			return nil, &AllocationError{Msg: fmt.Sprintf("stratum %d: prior prevalence %v outside [0,1]", h, p)}
+			return nil, &allocationError{Msg: fmt.Sprintf("stratum %d: prior prevalence %v outside [0,1]", h, p)}
 		}
 		P += float64(size[h]) * p
 		Q += float64(size[h]) * (1 - p)
@@ -80,7 +80,7 @@ func (fd *frameDesign) priorOf(a Allocation) ([]float64, error) {
 	for h, l := range fd.labels {
 		if v, ok := a.Prior[l]; ok {
 			if !(v >= 0 && v <= 1) {
-				return nil, &AllocationError{Stratum: l, Msg: fmt.Sprintf("prior prevalence %v outside [0,1]", v)}
+				return nil, &allocationError{Stratum: l, Msg: fmt.Sprintf("prior prevalence %v outside [0,1]", v)}
 			}
 			p[h] = v
 			continue
@@ -96,7 +96,7 @@ func (fd *frameDesign) priorOf(a Allocation) ([]float64, error) {
 			}
 			c, ok := fd.f.Num[col]
 			if !ok {
-				return nil, &ColumnError{Column: col, Available: fd.f.Columns()}
+				return nil, &columnError{Column: col, Available: fd.f.Columns()}
 			}
 			k, n = make([]float64, H), make([]float64, H)
 			for r, hr := range fd.st.Row {
@@ -143,7 +143,7 @@ func (sp *StratumPlan) Allocation(a Allocation, n int) ([]int, error) {
 	sd := func(h int) (float64, error) {
 		s, ok := a.SD[sp.Labels[h]]
 		if !ok {
-			return 0, &AllocationError{Stratum: sp.Labels[h], Msg: "a plan with Neyman allocation needs SD for every stratum"}
+			return 0, &allocationError{Stratum: sp.Labels[h], Msg: "a plan with Neyman allocation needs SD for every stratum"}
 		}
 		return s, nil
 	}

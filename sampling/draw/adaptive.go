@@ -94,7 +94,7 @@ func planAdaptive(fd *frameDesign, a Allocation, n1, room []int, w []float64, n 
 		}
 	}
 	if n < open {
-		return nil, nil, &AllocationError{Msg: fmt.Sprintf("an adaptive top-up gives each of the %d strata with undrawn units at least one; %d is too few", open, n)}
+		return nil, nil, &allocationError{Msg: fmt.Sprintf("an adaptive top-up gives each of the %d strata with undrawn units at least one; %d is too few", open, n)}
 	}
 	base, _, err := Allocate(fd.labels, room, w, n, 1)
 	if err != nil {

@@ -86,24 +86,24 @@ func (a Allocation) floor() int {
 func Allocate(labels []string, size []int, weight []float64, n, min int) ([]int, []Warning, error) {
 	H := len(size)
 	if len(weight) != H || len(labels) != H {
-		return nil, nil, &AllocationError{Msg: "labels, sizes and weights differ in length"}
+		return nil, nil, &allocationError{Msg: "labels, sizes and weights differ in length"}
 	}
 	total, minTotal := 0, 0
 	for h := range size {
 		total += size[h]
 		minTotal += minInt(min, size[h])
 		if w := weight[h]; w < 0 || math.IsNaN(w) || math.IsInf(w, 0) {
-			return nil, nil, &AllocationError{Stratum: labels[h], Msg: fmt.Sprintf("invalid weight %v", w)}
+			return nil, nil, &allocationError{Stratum: labels[h], Msg: fmt.Sprintf("invalid weight %v", w)}
 		}
 	}
 	if n < 0 {
-		return nil, nil, &AllocationError{Msg: fmt.Sprintf("negative sample size %d", n)}
+		return nil, nil, &allocationError{Msg: fmt.Sprintf("negative sample size %d", n)}
 	}
 	if n > total {
-		return nil, nil, &SizeError{N: n, Available: total, Population: total}
+		return nil, nil, &sizeError{N: n, Available: total, Population: total}
 	}
 	if minTotal > n {
-		return nil, nil, &AllocationError{Msg: fmt.Sprintf("minimum %d per stratum needs %d units, more than n=%d", min, minTotal, n)}
+		return nil, nil, &allocationError{Msg: fmt.Sprintf("minimum %d per stratum needs %d units, more than n=%d", min, minTotal, n)}
 	}
 	var warns []Warning
 	alloc := make([]int, H)
@@ -242,24 +242,24 @@ func (a Allocation) weights(labels []string, size []int, sd func(h int) (float64
 				continue
 			}
 			if v < 0 {
-				return nil, 0, &AllocationError{Stratum: l, Msg: fmt.Sprintf("negative table entry %d", v)}
+				return nil, 0, &allocationError{Stratum: l, Msg: fmt.Sprintf("negative table entry %d", v)}
 			}
 			w[h] = float64(v)
 			sum += v
 		}
 		if len(missing) > 0 {
-			return nil, 0, &AllocationError{Msg: fmt.Sprintf("table has no entry for strata %q", missing)}
+			return nil, 0, &allocationError{Msg: fmt.Sprintf("table has no entry for strata %q", missing)}
 		}
 		for l := range a.Table {
 			if !known[l] {
-				return nil, 0, &AllocationError{Stratum: l, Msg: fmt.Sprintf("table names a stratum not in the frame (strata: %q)", labels)}
+				return nil, 0, &allocationError{Stratum: l, Msg: fmt.Sprintf("table names a stratum not in the frame (strata: %q)", labels)}
 			}
 		}
 		if n == 0 {
 			n = sum
 		}
 	default:
-		return nil, 0, &AllocationError{Msg: fmt.Sprintf("unknown method %v", a.Method)}
+		return nil, 0, &allocationError{Msg: fmt.Sprintf("unknown method %v", a.Method)}
 	}
 	return w, n, nil
 }

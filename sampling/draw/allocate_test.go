@@ -110,7 +110,7 @@ func TestTableTakeAllWarns(t *testing.T) {
 func TestSizeErrors(t *testing.T) {
 	f := fixture()
 	_, err := Draw(f, Design{Strata: regionSpec, Alloc: Allocation{Method: Equal, N: 26}})
-	var se *SizeError
+	var se *sizeError
 	if !errors.As(err, &se) || se.N != 26 || se.Available != 25 {
 		t.Errorf("n > population: %v", err)
 	}
@@ -123,7 +123,7 @@ func TestSizeErrors(t *testing.T) {
 		t.Errorf("n = Σ N'_h refused: %v", err)
 	}
 	_, err = Draw(f, Design{Strata: regionSpec, Alloc: Allocation{Method: Table, Table: map[string]int{"region=frontal": 1}}})
-	var ae *AllocationError
+	var ae *allocationError
 	if !errors.As(err, &ae) {
 		t.Errorf("incomplete table: %v", err)
 	}

@@ -39,19 +39,22 @@ func (c Control) Drawn() Drawn {
 		Pi: c.Pi, Weight: c.Weight, Phase: 1, Order: c.Order, Kind: KindControl}
 }
 
-// ControlError reports an impossible control draw; Recording is empty when
+// controlError reports an impossible control draw; Recording is empty when
 // the problem is not tied to one recording.
-type ControlError struct {
+type controlError struct {
 	Recording string
 	Msg       string
 }
 
-func (e *ControlError) Error() string {
+func (e *controlError) Error() string {
 	if e.Recording == "" {
 		return "draw: controls: " + e.Msg
 	}
 	return fmt.Sprintf("draw: controls, recording %q: %s", e.Recording, e.Msg)
 }
+
+// Unwrap gives ErrInput, for errors.Is.
+func (e *controlError) Unwrap() error { return ErrInput }
 
 // DrawControls lays a grid of non-overlapping epochs [k·L, (k+1)·L),
 // k = 0 … ⌊D/L⌋−1, over each recording; an epoch is eligible when it
@@ -62,14 +65,14 @@ func (e *ControlError) Error() string {
 // sorted by Order and M.
 func DrawControls(recs []RecordingSpan, onsets map[string][]float64, epochLen, minDist float64, m int, seed uint64) ([]Control, int, error) {
 	if !(epochLen > 0) || minDist < 0 || math.IsNaN(minDist) {
-		return nil, 0, &ControlError{Msg: fmt.Sprintf("need epochLen > 0 and minDist ≥ 0, got %v, %v", epochLen, minDist)}
+		return nil, 0, &controlError{Msg: fmt.Sprintf("need epochLen > 0 and minDist ≥ 0, got %v, %v", epochLen, minDist)}
 	}
 	rs := slices.Clone(recs)
 	sort.Slice(rs, func(i, j int) bool { return rs[i].ID < rs[j].ID })
 	var eligible []Control
 	for i, r := range rs {
 		if i > 0 && rs[i-1].ID == r.ID {
-			return nil, 0, &ControlError{Recording: r.ID, Msg: "recording listed twice"}
+			return nil, 0, &controlError{Recording: r.ID, Msg: "recording listed twice"}
 		}
 		on := slices.Clone(onsets[r.ID])
 		slices.Sort(on)
@@ -86,7 +89,7 @@ func DrawControls(recs []RecordingSpan, onsets map[string][]float64, epochLen, m
 	}
 	M := len(eligible)
 	if m < 0 || m > M {
-		return nil, M, &ControlError{Msg: fmt.Sprintf("m=%d controls requested, %d eligible epochs", m, M)}
+		return nil, M, &controlError{Msg: fmt.Sprintf("m=%d controls requested, %d eligible epochs", m, M)}
 	}
 	rng := rand.New(rand.NewPCG(seed, streamControl))
 	for i := 0; i < m; i++ {

@@ -64,8 +64,8 @@ func TestTopUpRejectsChangedStrata(t *testing.T) {
 	prev[0].Stratum = "region=elsewhere"
 	if _, err := TopUp(f, d, prev, 2, 2); err == nil {
 		t.Error("changed stratum accepted")
-	} else if pe, ok := err.(*PhaseError); !ok || pe.EventID != prev[0].EventID {
-		t.Errorf("error %v, want *PhaseError for %s", err, prev[0].EventID)
+	} else if pe, ok := err.(*phaseError); !ok || pe.EventID != prev[0].EventID {
+		t.Errorf("error %v, want *phaseError for %s", err, prev[0].EventID)
 	}
 	d2 := d
 	d2.Strata = []StratumSpec{{Column: "score", Bins: 2}}

@@ -74,7 +74,7 @@ func prepare(f *Frame, d Design) (*frameDesign, error) {
 		return nil, err
 	}
 	if d.Cap < 0 {
-		return nil, &AllocationError{Msg: fmt.Sprintf("negative per-subject cap %d", d.Cap)}
+		return nil, &allocationError{Msg: fmt.Sprintf("negative per-subject cap %d", d.Cap)}
 	}
 	st, err := Stratify(f, d.Strata)
 	if err != nil {
@@ -153,17 +153,17 @@ func (fd *frameDesign) sd(a Allocation) func(h int) (float64, error) {
 		l := fd.labels[h]
 		if s, ok := a.SD[l]; ok {
 			if s < 0 || math.IsNaN(s) || math.IsInf(s, 0) {
-				return 0, &AllocationError{Stratum: l, Msg: fmt.Sprintf("invalid standard deviation %v", s)}
+				return 0, &allocationError{Stratum: l, Msg: fmt.Sprintf("invalid standard deviation %v", s)}
 			}
 			return s, nil
 		}
 		if a.SDColumn == "" {
-			return 0, &AllocationError{Stratum: l, Msg: "Neyman allocation needs SD for every stratum or an SDColumn"}
+			return 0, &allocationError{Stratum: l, Msg: "Neyman allocation needs SD for every stratum or an SDColumn"}
 		}
 		if pilot == nil {
 			col, ok := fd.f.Num[a.SDColumn]
 			if !ok {
-				return 0, &ColumnError{Column: a.SDColumn, Available: fd.f.Columns()}
+				return 0, &columnError{Column: a.SDColumn, Available: fd.f.Columns()}
 			}
 			pilot = stratumSD(col, fd.st.Row, len(fd.labels))
 		}
@@ -208,7 +208,7 @@ func (fd *frameDesign) sizeError(n, cap int) error {
 	for _, p := range fd.pool {
 		avail += len(p)
 	}
-	return &SizeError{N: n, Available: avail, Population: fd.f.Len(), Cap: cap}
+	return &sizeError{N: n, Available: avail, Population: fd.f.Len(), Cap: cap}
 }
 
 // Draw takes a stratified sample from f according to d and returns every
@@ -225,7 +225,7 @@ func Draw(f *Frame, d Design) (*Result, error) {
 		return nil, err
 	}
 	if n < 1 {
-		return nil, &AllocationError{Msg: fmt.Sprintf("total sample size %d, want ≥ 1", n)}
+		return nil, &allocationError{Msg: fmt.Sprintf("total sample size %d, want ≥ 1", n)}
 	}
 	avail := 0
 	for _, c := range capped {

@@ -45,17 +45,17 @@ func (f *Frame) Validate() error {
 func (f *Frame) sortedRows() ([]int, error) {
 	n := len(f.ID)
 	if len(f.Subject) != n {
-		return nil, &LengthError{Column: "subject", Got: len(f.Subject), Want: n}
+		return nil, &lengthError{Column: "subject", Got: len(f.Subject), Want: n}
 	}
 	if f.Recording != nil && len(f.Recording) != n {
-		return nil, &LengthError{Column: "recording", Got: len(f.Recording), Want: n}
+		return nil, &lengthError{Column: "recording", Got: len(f.Recording), Want: n}
 	}
 	for _, k := range f.Columns() {
 		if c, ok := f.Num[k]; ok && len(c) != n {
-			return nil, &LengthError{Column: k, Got: len(c), Want: n}
+			return nil, &lengthError{Column: k, Got: len(c), Want: n}
 		}
 		if c, ok := f.Cat[k]; ok && len(c) != n {
-			return nil, &LengthError{Column: k, Got: len(c), Want: n}
+			return nil, &lengthError{Column: k, Got: len(c), Want: n}
 		}
 	}
 	// Sorting (ID, row) pairs rather than row indices keeps the string
@@ -78,7 +78,7 @@ func (f *Frame) sortedRows() ([]int, error) {
 	for i, k := range keys {
 		rows[i] = k.row
 		if i > 0 && k.id == keys[i-1].id {
-			return nil, &DuplicateIDError{ID: k.id, Row: k.row, Other: keys[i-1].row}
+			return nil, &duplicateIDError{ID: k.id, Row: k.row, Other: keys[i-1].row}
 		}
 	}
 	return rows, nil

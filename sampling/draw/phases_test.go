@@ -2,6 +2,7 @@ package draw
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"os"
 	"path/filepath"
@@ -12,15 +13,15 @@ func TestRunAdaptiveTopUpRecordsPhases(t *testing.T) {
 	cands, recs := runFixture()
 	dir := t.TempDir()
 	specs, _ := ParseStrata("score:q3,region")
-	o := RunOptions{Candidates: cands, Recordings: recs, OutDir: dir,
+	o := Options{Candidates: cands, Recordings: recs, OutDir: dir,
 		Design: Design{Strata: specs, Alloc: Allocation{Method: Accuracy, N: 45}, Seed: 5}}
-	if _, err := Run(o); err != nil {
+	if _, err := Run(context.Background(), o); err != nil {
 		t.Fatal(err)
 	}
 	before, _ := os.ReadFile(filepath.Join(dir, DrawFile))
 	bad := o
 	bad.TopUp = -10
-	if _, err := Run(bad); err == nil {
+	if _, err := Run(context.Background(), bad); err == nil {
 		t.Fatal("top-up of -10 accepted")
 	}
 	if after, _ := os.ReadFile(filepath.Join(dir, DrawFile)); !bytes.Equal(before, after) {
@@ -29,7 +30,7 @@ func TestRunAdaptiveTopUpRecordsPhases(t *testing.T) {
 	top := o
 	top.TopUp = 30
 	top.Adaptive = map[string]PhaseEstimate{"score=q3|region=frontal-right": {Prevalence: 0.6, Disagreement: 0.3, Rated: 5}}
-	res, err := Run(top)
+	res, err := Run(context.Background(), top)
 	if err != nil {
 		t.Fatal(err)
 	}

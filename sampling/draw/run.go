@@ -1,6 +1,7 @@
 package draw
 
 import (
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -23,8 +24,8 @@ const (
 	StrataFile = "strata.csv"
 )
 
-// RunOptions configure `quorate draw`.
-type RunOptions struct {
+// Options configure a draw (Run).
+type Options struct {
 	Candidates []candidate.Row
 	Recordings []archive.Recording
 	OutDir     string
@@ -73,11 +74,17 @@ type savedDesign struct {
 }
 
 // ErrDrawExists is returned when a draw exists and neither TopUp nor Replace is set.
-var ErrDrawExists = errors.New("a draw already exists; use --top-up N to add events or --replace to start over (the old draw is kept beside the new one)")
+var ErrDrawExists = errors.New("a draw already exists")
+
+// ErrNoDraw is returned when TopUp is set and there is no draw to add to.
+var ErrNoDraw = errors.New("no draw to top up")
 
 // Run draws events (and background controls) and writes draw.parquet, design.json and
 // strata.csv. An existing draw is never silently replaced.
-func Run(o RunOptions) (*RunResult, error) {
+func Run(ctx context.Context, o Options) (*RunResult, error) {
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
 	if o.TopUp < 0 {
 		return nil, fmt.Errorf("top-up: got %d events, want at least 1", o.TopUp)
 	}
@@ -91,10 +98,10 @@ func Run(o RunOptions) (*RunResult, error) {
 		return nil, fmt.Errorf("%s: %w", out, ErrDrawExists)
 	}
 	if !exists && o.TopUp > 0 {
-		return nil, fmt.Errorf("%s: no draw to top up; run a first draw without --top-up", out)
+		return nil, fmt.Errorf("%s: %w", out, ErrNoDraw)
 	}
 	if len(o.Candidates) == 0 {
-		return nil, errors.New("no candidates: run quorate detect or quorate import-events first")
+		return nil, candidate.ErrNoCandidates
 	}
 	f := FrameOf(o.Candidates)
 	onset := make(map[string]float64, len(o.Candidates))
@@ -146,7 +153,7 @@ func Run(o RunOptions) (*RunResult, error) {
 		}
 		if o.Controls > 0 {
 			ctl, m, err := drawControls(o, o.Controls)
-			var ce *ControlError
+			var ce *controlError
 			if errors.As(err, &ce) && m < o.Controls {
 				// Fewer eligible epochs than asked for: take them all, as a stratum smaller
 				// than its allocation is taken whole, and say so.
@@ -201,7 +208,7 @@ func rowOf(d Drawn, onset float64) Row {
 		OnsetS: onset, Pi: d.Pi, Weight: d.Weight, Phase: int32(d.Phase), Order: int32(d.Order)}
 }
 
-func drawControls(o RunOptions, m int) ([]Control, int, error) {
+func drawControls(o Options, m int) ([]Control, int, error) {
 	spans := make([]RecordingSpan, 0, len(o.Recordings))
 	for _, r := range o.Recordings {
 		spans = append(spans, RecordingSpan{ID: r.RecordingID, Subject: r.SubjectKey, Duration: r.DurationS})
@@ -247,7 +254,7 @@ func keepAside(dir, tag string, move bool) (string, error) {
 	}
 }
 
-func writeDesign(path string, o RunOptions, phase PhaseRecord) error {
+func writeDesign(path string, o Options, phase PhaseRecord) error {
 	a := o.Design.Alloc
 	sd := savedDesign{Strata: FormatStrata(o.Design.Strata), Method: a.Method.String(), N: a.N, Min: a.Min,
 		SDColumn: a.SDColumn, SD: a.SD, Table: a.Table, Cap: o.Design.Cap, Seed: o.Design.Seed,

@@ -2,6 +2,7 @@ package draw
 
 import (
 	"bytes"
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -33,10 +34,10 @@ func TestRunDrawTopUpReplace(t *testing.T) {
 	cands, recs := runFixture()
 	dir := t.TempDir()
 	specs, _ := ParseStrata("score:q5,region")
-	o := RunOptions{Candidates: cands, Recordings: recs, OutDir: dir,
+	o := Options{Candidates: cands, Recordings: recs, OutDir: dir,
 		Design:   Design{Strata: specs, Alloc: Allocation{Method: Proportional, N: 60, Min: 2}, Seed: 11},
 		Controls: 10, ControlEpochS: 2, ControlDistS: 5}
-	res, err := Run(o)
+	res, err := Run(context.Background(), o)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -70,7 +71,7 @@ func TestRunDrawTopUpReplace(t *testing.T) {
 	dir2 := t.TempDir()
 	o2 := o
 	o2.Candidates, o2.OutDir = rev, dir2
-	if _, err := Run(o2); err != nil {
+	if _, err := Run(context.Background(), o2); err != nil {
 		t.Fatal(err)
 	}
 	second, _ := os.ReadFile(filepath.Join(dir2, DrawFile))
@@ -78,12 +79,12 @@ func TestRunDrawTopUpReplace(t *testing.T) {
 		t.Error("input row order changed the draw")
 	}
 
-	if _, err := Run(o); !errors.Is(err, ErrDrawExists) {
+	if _, err := Run(context.Background(), o); !errors.Is(err, ErrDrawExists) {
 		t.Fatalf("second draw without --replace: %v, want ErrDrawExists", err)
 	}
 	top := o
 	top.TopUp = 30
-	res2, err := Run(top)
+	res2, err := Run(context.Background(), top)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -102,7 +103,7 @@ func TestRunDrawTopUpReplace(t *testing.T) {
 	}
 	rep := o
 	rep.Replace = true
-	if _, err := Run(rep); err != nil {
+	if _, err := Run(context.Background(), rep); err != nil {
 		t.Fatal(err)
 	}
 	kept, err := os.ReadFile(filepath.Join(dir, "draw.replaced-1.parquet"))
@@ -118,11 +119,11 @@ func TestRunDrawTopUpReplace(t *testing.T) {
 func TestRunRefusesUnknownColumn(t *testing.T) {
 	cands, recs := runFixture()
 	specs, _ := ParseStrata("loudness:q4")
-	_, err := Run(RunOptions{Candidates: cands, Recordings: recs, OutDir: t.TempDir(),
+	_, err := Run(context.Background(), Options{Candidates: cands, Recordings: recs, OutDir: t.TempDir(),
 		Design: Design{Strata: specs, Alloc: Allocation{Method: Equal, N: 10}, Seed: 1}})
-	var ce *ColumnError
+	var ce *columnError
 	if !errors.As(err, &ce) {
-		t.Fatalf("err = %v, want a ColumnError listing the columns", err)
+		t.Fatalf("err = %v, want a columnError listing the columns", err)
 	}
 }
 
@@ -131,7 +132,7 @@ func TestRunRefusesUnknownColumn(t *testing.T) {
 func TestRunTakesAllControlsWhenFew(t *testing.T) {
 	cands, recs := runFixture()
 	specs, _ := ParseStrata("region")
-	res, err := Run(RunOptions{Candidates: cands, Recordings: recs, OutDir: t.TempDir(),
+	res, err := Run(context.Background(), Options{Candidates: cands, Recordings: recs, OutDir: t.TempDir(),
 		Design:   Design{Strata: specs, Alloc: Allocation{Method: Equal, N: 30}, Seed: 2},
 		Controls: 100000, ControlEpochS: 2, ControlDistS: 5})
 	if err != nil {
@@ -157,15 +158,15 @@ func TestRunRefusesNegativeTopUp(t *testing.T) {
 	cands, recs := runFixture()
 	dir := t.TempDir()
 	specs, _ := ParseStrata("region")
-	o := RunOptions{Candidates: cands, Recordings: recs, OutDir: dir,
+	o := Options{Candidates: cands, Recordings: recs, OutDir: dir,
 		Design: Design{Strata: specs, Alloc: Allocation{Method: Proportional, N: 30}, Seed: 3}}
-	if _, err := Run(o); err != nil {
+	if _, err := Run(context.Background(), o); err != nil {
 		t.Fatal(err)
 	}
 	before, _ := os.ReadFile(filepath.Join(dir, DrawFile))
 	o.TopUp = -10
 	o.Design.Seed = 4
-	if _, err := Run(o); err == nil {
+	if _, err := Run(context.Background(), o); err == nil {
 		t.Fatal("top-up of -10 accepted")
 	}
 	after, _ := os.ReadFile(filepath.Join(dir, DrawFile))
@@ -181,9 +182,40 @@ func TestRunRefusesNegativeTopUp(t *testing.T) {
 func TestRunRefusesNegativeControls(t *testing.T) {
 	cands, recs := runFixture()
 	specs, _ := ParseStrata("region")
-	o := RunOptions{Candidates: cands, Recordings: recs, OutDir: t.TempDir(), Controls: -5,
+	o := Options{Candidates: cands, Recordings: recs, OutDir: t.TempDir(), Controls: -5,
 		Design: Design{Strata: specs, Alloc: Allocation{Method: Proportional, N: 30}, Seed: 3}}
-	if _, err := Run(o); err == nil || !strings.Contains(err.Error(), "controls") {
+	if _, err := Run(context.Background(), o); err == nil || !strings.Contains(err.Error(), "controls") {
 		t.Errorf("controls -5: %v", err)
+	}
+}
+
+// A cancelled context stops a draw before anything is written.
+func TestRunCancelled(t *testing.T) {
+	cands, recs := runFixture()
+	dir := t.TempDir()
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	specs, _ := ParseStrata("region")
+	_, err := Run(ctx, Options{Candidates: cands, Recordings: recs, OutDir: dir,
+		Design: Design{Strata: specs, Alloc: Allocation{Method: Equal, N: 10}, Seed: 1}})
+	if !errors.Is(err, context.Canceled) {
+		t.Fatalf("err %v, want context.Canceled", err)
+	}
+	if _, err := os.Stat(filepath.Join(dir, DrawFile)); !os.IsNotExist(err) {
+		t.Errorf("%s written under a cancelled context", DrawFile)
+	}
+}
+
+// The missing inputs of a draw are sentinels in the domain's words.
+func TestRunMissingInputs(t *testing.T) {
+	cands, recs := runFixture()
+	specs, _ := ParseStrata("region")
+	d := Design{Strata: specs, Alloc: Allocation{Method: Equal, N: 10}, Seed: 1}
+	if _, err := Run(context.Background(), Options{Recordings: recs, OutDir: t.TempDir(), Design: d}); !errors.Is(err, candidate.ErrNoCandidates) {
+		t.Errorf("no candidates: %v", err)
+	}
+	_, err := Run(context.Background(), Options{Candidates: cands, Recordings: recs, OutDir: t.TempDir(), Design: d, TopUp: 5})
+	if !errors.Is(err, ErrNoDraw) || strings.Contains(err.Error(), "--") {
+		t.Errorf("top-up without a draw: %v, want ErrNoDraw without flags", err)
 	}
 }

@@ -42,12 +42,12 @@ func ParseStrata(s string) ([]StratumSpec, error) {
 			inEdges = false
 		}
 		if tok == "" {
-			return nil, &ParseError{Pos: at, Field: tok, Err: errors.New("empty field")}
+			return nil, &parseError{Pos: at, Field: tok, Err: errors.New("empty field")}
 		}
 		col, opt, hasOpt := strings.Cut(tok, ":")
 		col = strings.TrimSpace(col)
 		if col == "" {
-			return nil, &ParseError{Pos: at, Field: tok, Err: errors.New("missing column name")}
+			return nil, &parseError{Pos: at, Field: tok, Err: errors.New("missing column name")}
 		}
 		sp := StratumSpec{Column: col}
 		if hasOpt {
@@ -56,18 +56,18 @@ func ParseStrata(s string) ([]StratumSpec, error) {
 			case strings.HasPrefix(opt, "q"):
 				k, err := strconv.Atoi(opt[1:])
 				if err != nil || k < 1 {
-					return nil, &ParseError{Pos: at, Field: tok, Err: errors.New("want qN with N ≥ 1 quantile bins")}
+					return nil, &parseError{Pos: at, Field: tok, Err: errors.New("want qN with N ≥ 1 quantile bins")}
 				}
 				sp.Bins = k
 			case strings.HasPrefix(opt, "edges="):
 				v, err := strconv.ParseFloat(strings.TrimSpace(opt[len("edges="):]), 64)
 				if err != nil {
-					return nil, &ParseError{Pos: at, Field: tok, Err: err}
+					return nil, &parseError{Pos: at, Field: tok, Err: err}
 				}
 				sp.Edges = []float64{v}
 				inEdges = true
 			default:
-				return nil, &ParseError{Pos: at, Field: tok, Err: errors.New("want qN or edges=a,b,…")}
+				return nil, &parseError{Pos: at, Field: tok, Err: errors.New("want qN or edges=a,b,…")}
 			}
 		}
 		specs = append(specs, sp)

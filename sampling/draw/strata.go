@@ -116,30 +116,30 @@ func labelOf(c int64, levels []level) string {
 func levelsOf(f *Frame, sp StratumSpec) (level, []Warning, error) {
 	if col, ok := f.Cat[sp.Column]; ok {
 		if sp.Bins > 0 || len(sp.Edges) > 0 {
-			return level{}, nil, &SpecError{Column: sp.Column, Msg: "categorical column takes no bins or edges"}
+			return level{}, nil, &specError{Column: sp.Column, Msg: "categorical column takes no bins or edges"}
 		}
 		return catLevels(sp.Column, col), nil, nil
 	}
 	col, ok := f.Num[sp.Column]
 	if !ok {
-		return level{}, nil, &ColumnError{Column: sp.Column, Available: f.Columns()}
+		return level{}, nil, &columnError{Column: sp.Column, Available: f.Columns()}
 	}
 	switch {
 	case sp.Bins > 0 && len(sp.Edges) > 0:
-		return level{}, nil, &SpecError{Column: sp.Column, Msg: "give bins or edges, not both"}
+		return level{}, nil, &specError{Column: sp.Column, Msg: "give bins or edges, not both"}
 	case sp.Bins > 0:
 		lv, w := quantileLevels(sp.Column, col, QuantileEdges(col, sp.Bins))
 		return lv, w, nil
 	case len(sp.Edges) > 0:
 		for i := 1; i < len(sp.Edges); i++ {
 			if !(sp.Edges[i] > sp.Edges[i-1]) {
-				return level{}, nil, &SpecError{Column: sp.Column, Msg: "edges must be strictly increasing"}
+				return level{}, nil, &specError{Column: sp.Column, Msg: "edges must be strictly increasing"}
 			}
 		}
 		lv, w := edgeLevels(sp.Column, col, sp.Edges)
 		return lv, w, nil
 	}
-	return level{}, nil, &SpecError{Column: sp.Column, Msg: "numeric column needs quantile bins (qN) or edges"}
+	return level{}, nil, &specError{Column: sp.Column, Msg: "numeric column needs quantile bins (qN) or edges"}
 }
 
 func catLevels(name string, col []string) level {

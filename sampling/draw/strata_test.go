@@ -77,14 +77,14 @@ func TestStratifyLabelsAndEmptyBins(t *testing.T) {
 func TestUnknownColumn(t *testing.T) {
 	f := fixture()
 	_, err := Draw(f, Design{Strata: []StratumSpec{{Column: "polarity"}}, Alloc: Allocation{Method: Equal, N: 3}})
-	var ce *ColumnError
+	var ce *columnError
 	if !errors.As(err, &ce) || ce.Column != "polarity" || !reflect.DeepEqual(ce.Available, []string{"region", "score"}) {
-		t.Fatalf("error %v, want *ColumnError listing region, score", err)
+		t.Fatalf("error %v, want *columnError listing region, score", err)
 	}
 	if !strings.Contains(err.Error(), "region, score") {
 		t.Errorf("message %q does not list the columns", err)
 	}
-	var se *SpecError
+	var se *specError
 	if _, err := Stratify(f, []StratumSpec{{Column: "score"}}); !errors.As(err, &se) {
 		t.Errorf("numeric column without bins: %v", err)
 	}
@@ -101,9 +101,9 @@ func TestParseStrata(t *testing.T) {
 	}
 	for _, bad := range []string{"score:q0", "score:bins", ",region", "score:edges=x", ":q5"} {
 		_, err := ParseStrata(bad)
-		var pe *ParseError
+		var pe *parseError
 		if !errors.As(err, &pe) {
-			t.Errorf("%q: error %v, want *ParseError", bad, err)
+			t.Errorf("%q: error %v, want *parseError", bad, err)
 		}
 	}
 }

@@ -19,7 +19,7 @@ import (
 //
 // Strata must be the same between phases: every candidate in prev must be
 // in the frame, in the stratum its label names and in the thinned stratum;
-// otherwise TopUp returns a *PhaseError. (Quantile edges are recomputed from
+// otherwise TopUp returns a *phaseError. (Quantile edges are recomputed from
 // the frame, so adding candidates to the frame changes the strata.) Units
 // of kind control in prev are returned unchanged. New units get Phase one
 // more than the largest in prev, and Order values after the largest in prev,
@@ -30,7 +30,7 @@ func TopUp(f *Frame, d Design, prev []Drawn, n int, seed uint64) (*Result, error
 
 func topUp(f *Frame, d Design, prev []Drawn, n int, seed uint64, est map[string]PhaseEstimate) (*Result, error) {
 	if n < 1 {
-		return nil, &AllocationError{Msg: fmt.Sprintf("top-up of %d events, want ≥ 1", n)}
+		return nil, &allocationError{Msg: fmt.Sprintf("top-up of %d events, want ≥ 1", n)}
 	}
 	fd, err := prepare(f, d)
 	if err != nil {
@@ -54,17 +54,17 @@ func topUp(f *Frame, d Design, prev []Drawn, n int, seed uint64, est map[string]
 		}
 		r, ok := rowOf[u.EventID]
 		if !ok {
-			return nil, &PhaseError{EventID: u.EventID, Msg: "not in the frame"}
+			return nil, &phaseError{EventID: u.EventID, Msg: "not in the frame"}
 		}
 		h := fd.st.Row[r]
 		if fd.labels[h] != u.Stratum {
-			return nil, &PhaseError{EventID: u.EventID, Msg: "stratum was " + u.Stratum + ", is now " + fd.labels[h] + ": strata must be the same between phases"}
+			return nil, &phaseError{EventID: u.EventID, Msg: "stratum was " + u.Stratum + ", is now " + fd.labels[h] + ": strata must be the same between phases"}
 		}
 		if fd.thin[r] == 0 {
-			return nil, &PhaseError{EventID: u.EventID, Msg: "not in the thinned stratum: cap or seed differ from the earlier phase"}
+			return nil, &phaseError{EventID: u.EventID, Msg: "not in the thinned stratum: cap or seed differ from the earlier phase"}
 		}
 		if taken[r] {
-			return nil, &PhaseError{EventID: u.EventID, Msg: "drawn twice"}
+			return nil, &phaseError{EventID: u.EventID, Msg: "drawn twice"}
 		}
 		taken[r] = true
 		n1[h]++
@@ -81,7 +81,7 @@ func topUp(f *Frame, d Design, prev []Drawn, n int, seed uint64, est map[string]
 		avail += room[h]
 	}
 	if n > avail {
-		return nil, &AllocationError{Msg: fmt.Sprintf("top-up of %d exceeds the %d undrawn units of the thinned strata", n, avail)}
+		return nil, &allocationError{Msg: fmt.Sprintf("top-up of %d exceeds the %d undrawn units of the thinned strata", n, avail)}
 	}
 	var ad *adaptive
 	var alloc []int

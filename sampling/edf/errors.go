@@ -1,6 +1,7 @@
 package edf
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 )
@@ -29,6 +30,12 @@ func (e *FieldError) Error() string {
 	return fmt.Sprintf("%s: %s field %q%s at byte %d: got %s, want %s",
 		name, fieldKind(e.Field), e.Field, sig, e.Offset, strconv.Quote(e.Value), e.Want)
 }
+
+// ErrFormat is matched by errors.Is on a FieldError.
+var ErrFormat = errors.New("edf: not as the specification requires")
+
+// Unwrap gives ErrFormat.
+func (e *FieldError) Unwrap() error { return ErrFormat }
 
 func fieldKind(field string) string {
 	switch field {

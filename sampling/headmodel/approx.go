@@ -116,7 +116,7 @@ func (s Sphere) fitBergScherg() (BergScherg, error) {
 		}
 	}
 	if math.IsInf(best, 1) {
-		return BergScherg{}, &MapError{Msg: "Berg–Scherg fit failed"}
+		return BergScherg{}, &mapError{Msg: "Berg–Scherg fit failed"}
 	}
 	return bs, nil
 }
@@ -152,7 +152,7 @@ func (bs *BergScherg) leadOnScalp(e, r0 Vec3) Vec3 {
 // Potentials is Sphere.Potentials under the approximation.
 func (bs *BergScherg) Potentials(dst []float64, electrodes []Vec3, pos, moment Vec3) {
 	if len(dst) != len(electrodes) {
-		panic(&LengthError{Field: "dst", Got: len(dst), Want: len(electrodes)})
+		panic(&lengthError{Field: "dst", Got: len(dst), Want: len(electrodes)})
 	}
 	for i, e := range electrodes {
 		dst[i] = bs.lead(e, pos).Dot(moment)

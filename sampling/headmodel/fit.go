@@ -71,14 +71,14 @@ func NewFitter(electrodes []Vec3, head Sphere, opts FitOptions) (*Fitter, error)
 		return nil, err
 	}
 	if len(electrodes) < 4 {
-		return nil, &LengthError{Field: "electrodes", Got: len(electrodes), Want: 4}
+		return nil, &lengthError{Field: "electrodes", Got: len(electrodes), Want: 4}
 	}
 	R := head.Radius()
 	f := &Fitter{head: head, opts: opts.withDefaults()}
 	for i, e := range electrodes {
 		n := e.Norm()
 		if !(n > 0) || math.IsInf(n, 0) {
-			return nil, &ElectrodeError{Index: i, Pos: e}
+			return nil, &electrodeError{Index: i, Pos: e}
 		}
 		f.electrodes = append(f.electrodes, e.Scale(R/n))
 	}
@@ -165,13 +165,13 @@ func Fit(v []float64, electrodes []Vec3, head Sphere, opts FitOptions) (Dipole, 
 func (f *Fitter) Fit(v []float64) (Dipole, error) {
 	n := len(f.electrodes)
 	if len(v) != n {
-		return Dipole{}, &LengthError{Field: "v", Got: len(v), Want: n}
+		return Dipole{}, &lengthError{Field: "v", Got: len(v), Want: n}
 	}
 	w := make([]float64, n)
 	mean := 0.0
 	for _, x := range v {
 		if math.IsNaN(x) || math.IsInf(x, 0) {
-			return Dipole{}, &MapError{Msg: "map has non-finite values"}
+			return Dipole{}, &mapError{Msg: "map has non-finite values"}
 		}
 		mean += x
 	}
@@ -182,7 +182,7 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		ss += w[i] * w[i]
 	}
 	if ss == 0 {
-		return Dipole{}, &MapError{Msg: "map is flat after common-average reference"}
+		return Dipole{}, &mapError{Msg: "map is flat after common-average reference"}
 	}
 
 	type cand struct {
@@ -231,7 +231,7 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 	}
 	var p mat.VecDense
 	if err := p.SolveVec(a, mat.NewVecDense(n, w)); err != nil {
-		return Dipole{}, &MapError{Msg: "singular lead field at fitted position"}
+		return Dipole{}, &mapError{Msg: "singular lead field at fitted position"}
 	}
 	mom := Vec3{p.AtVec(0), p.AtVec(1), p.AtVec(2)}
 	var res mat.VecDense

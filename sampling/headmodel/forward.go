@@ -37,7 +37,7 @@ const maxTerms = 20000
 // strictly inside the innermost shell.
 func (s Sphere) Potentials(dst []float64, electrodes []Vec3, pos, moment Vec3) {
 	if len(dst) != len(electrodes) {
-		panic(&LengthError{Field: "dst", Got: len(dst), Want: len(electrodes)})
+		panic(&lengthError{Field: "dst", Got: len(dst), Want: len(electrodes)})
 	}
 	lf := s.leadVectors(electrodes, pos)
 	for i, g := range lf {
@@ -61,7 +61,7 @@ func (s Sphere) leadVectors(electrodes []Vec3, pos Vec3) []Vec3 {
 		panic(err)
 	}
 	if pos.Norm() >= s.Radii[0] {
-		panic(&MapError{Msg: "dipole position outside the innermost shell"})
+		panic(&mapError{Msg: "dipole position outside the innermost shell"})
 	}
 	out := make([]Vec3, len(electrodes))
 	if len(s.Radii) == 1 {

@@ -37,21 +37,21 @@ func (s Sphere) Radius() float64 { return s.Radii[len(s.Radii)-1] }
 // conductivities positive and as many.
 func (s Sphere) Validate() error {
 	if len(s.Radii) == 0 {
-		return &LengthError{Field: "Radii", Got: 0, Want: 1}
+		return &lengthError{Field: "Radii", Got: 0, Want: 1}
 	}
 	if len(s.Sigma) != len(s.Radii) {
-		return &LengthError{Field: "Sigma", Got: len(s.Sigma), Want: len(s.Radii)}
+		return &lengthError{Field: "Sigma", Got: len(s.Sigma), Want: len(s.Radii)}
 	}
 	prev := 0.0
 	for i, r := range s.Radii {
 		if !(r > prev) || math.IsInf(r, 0) {
-			return &ShellError{Field: "Radii", Index: i, Value: r, Msg: "radii must be positive, finite and increasing"}
+			return &shellError{Field: "Radii", Index: i, Value: r, Msg: "radii must be positive, finite and increasing"}
 		}
 		prev = r
 	}
 	for i, c := range s.Sigma {
 		if !(c > 0) || math.IsInf(c, 0) {
-			return &ShellError{Field: "Sigma", Index: i, Value: c, Msg: "conductivity must be positive and finite"}
+			return &shellError{Field: "Sigma", Index: i, Value: c, Msg: "conductivity must be positive and finite"}
 		}
 	}
 	return nil

@@ -14,7 +14,7 @@ import (
 // recordingPath is where an indexed recording lives on disk.
 func recordingPath(roots []string, rec archive.Recording) (string, error) {
 	if int(rec.Root) < 0 || int(rec.Root) >= len(roots) {
-		return "", &OptionError{Field: "Roots", Value: fmt.Sprint(len(roots), " roots"),
+		return "", &optionError{Field: "Roots", Value: fmt.Sprint(len(roots), " roots"),
 			Want: fmt.Sprintf("the archive roots of the index; recording %s is under root %d", rec.RecordingID, rec.Root)}
 	}
 	return filepath.Join(roots[rec.Root], filepath.FromSlash(rec.Path)), nil

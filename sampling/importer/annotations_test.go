@@ -116,5 +116,5 @@ func TestRunEDFAnnotations(t *testing.T) {
 	}
 	o.Files = []string{"missing.edf"}
 	_, err = Run(context.Background(), o)
-	as[*OptionError](t, err)
+	as[*optionError](t, err)
 }

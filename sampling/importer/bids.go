@@ -96,7 +96,7 @@ func readBIDS(r io.Reader, file string, m Mapping, pattern *regexp.Regexp, fixed
 	// BIDS Specification, "Task events": onset "must appear first", duration "second".
 	for i, want := range []string{"onset", "duration"} {
 		if len(t.header) <= i || t.header[i] != want {
-			return nil, nil, 0, &ColumnError{File: file, Column: cell(t.header, i),
+			return nil, nil, 0, &columnError{File: file, Column: cell(t.header, i),
 				Want: fmt.Sprintf("%q as column %d (BIDS task events: onset first, duration second)", want, i+1)}
 		}
 	}

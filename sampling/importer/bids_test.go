@@ -61,7 +61,7 @@ func TestReadBIDS(t *testing.T) {
 		{"onset\tduration\n", "trial_type"}, // the pattern needs trial_type
 	} {
 		_, _, _, err := readBIDS(strings.NewReader(c.header+"1\t1\n"), "h.tsv", Mapping{}, pattern, 0, "", "")
-		if ce := as[*ColumnError](t, err); ce.Column != c.col {
+		if ce := as[*columnError](t, err); ce.Column != c.col {
 			t.Errorf("%q: column %q, want %q", c.header, ce.Column, c.col)
 		}
 	}
@@ -122,7 +122,7 @@ func TestRunBIDS(t *testing.T) {
 	g := writeFile(t, dir, "sub-99_task-x_events.tsv", "onset\tduration\n1\t0\n")
 	o.Files, o.BIDSRecordings = []string{g}, nil
 	res, err = Run(context.Background(), o)
-	if err != nil || len(res.Rejected) != 1 || !strings.Contains(res.Rejected[0].Want, "--recording") {
+	if err != nil || len(res.Rejected) != 1 || !strings.Contains(res.Rejected[0].Want, "a recording given for the file") || res.Rejected[0].Field != "recording" {
 		t.Fatalf("unmatched: %v %+v", err, res.Rejected)
 	}
 }

@@ -1,62 +1,81 @@
 package importer
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 )
 
-// MappingError reports a malformed part of a column-mapping flag
+// Sentinels of this package's errors, for errors.Is: every error it returns for
+// unusable input matches one of them.
+var (
+	ErrInput = errors.New("importer: unusable input")
+)
+
+// mappingError reports a malformed part of a column-mapping flag
 // (recording=COL,onset=COL,...).
-type MappingError struct {
+type mappingError struct {
 	Spec  string // the whole flag value
 	Part  string // the comma-separated part at fault, as written
 	Index int    // 0-based position of Part in Spec's parts
 	Want  string
 }
 
-func (e *MappingError) Error() string {
+func (e *mappingError) Error() string {
 	return fmt.Sprintf("malformed mapping %q: part %d %q: want %s", e.Spec, e.Index+1, e.Part, e.Want)
 }
 
-// OptionError reports an Options field that cannot be used.
-type OptionError struct {
+// Unwrap gives ErrInput, for errors.Is.
+func (e *mappingError) Unwrap() error { return ErrInput }
+
+// optionError reports an Options field that cannot be used.
+type optionError struct {
 	Field string // Options field name
 	Value string
 	Want  string
 }
 
-func (e *OptionError) Error() string {
+func (e *optionError) Error() string {
 	return fmt.Sprintf("importer: option %s = %s: want %s", e.Field, strconv.Quote(e.Value), e.Want)
 }
 
-// ColumnError reports a file whose header lacks a needed column or breaks a column rule;
+// Unwrap gives ErrInput, for errors.Is.
+func (e *optionError) Unwrap() error { return ErrInput }
+
+// columnError reports a file whose header lacks a needed column or breaks a column rule;
 // the whole file is refused.
-type ColumnError struct {
+type columnError struct {
 	File   string
 	Column string // the column looked for, or the header cell at fault
 	Want   string
 }
 
-func (e *ColumnError) Error() string {
+func (e *columnError) Error() string {
 	return fmt.Sprintf("%s: header, column %q: want %s", e.File, e.Column, e.Want)
 }
 
-// ReadError reports a file that could not be read as a table at all (for example a
+// Unwrap gives ErrInput, for errors.Is.
+func (e *columnError) Unwrap() error { return ErrInput }
+
+// readError reports a file that could not be read as a table at all (for example a
 // quoted field never closed); Line is 1-based, 0 when unknown.
-type ReadError struct {
+type readError struct {
 	File string
 	Line int
 	Err  error
 }
 
-func (e *ReadError) Error() string {
+func (e *readError) Error() string {
 	if e.Line > 0 {
 		return fmt.Sprintf("%s:%d: %v", e.File, e.Line, e.Err)
 	}
 	return fmt.Sprintf("%s: %v", e.File, e.Err)
 }
 
-func (e *ReadError) Unwrap() error { return e.Err }
+// Is makes errors.Is(err, ErrInput) true.
+func (e *readError) Is(target error) bool { return target == ErrInput }
+
+func (e *readError) Unwrap() error { return e.Err }
 
 // ExistsError reports an earlier import of the same source that Replace was not set to
 // overwrite.
@@ -65,20 +84,29 @@ type ExistsError struct {
 }
 
 func (e *ExistsError) Error() string {
-	return fmt.Sprintf("%s already holds an import of this source: set Replace (--replace) to overwrite it", e.Dir)
+	return fmt.Sprintf("%s already holds an import of this source", e.Dir)
 }
 
-// MeasureError reports a Measure function that broke its contract or failed.
-type MeasureError struct {
+// ErrExists is matched by errors.Is on a ExistsError.
+var ErrExists = errors.New("importer: an import of this source exists")
+
+// Unwrap gives ErrExists.
+func (e *ExistsError) Unwrap() error { return ErrExists }
+
+// measureError reports a Measure function that broke its contract or failed.
+type measureError struct {
 	RecordingID string
 	Err         error
 }
 
-func (e *MeasureError) Error() string {
+func (e *measureError) Error() string {
 	return fmt.Sprintf("measuring imported events in %s: %v", e.RecordingID, e.Err)
 }
 
-func (e *MeasureError) Unwrap() error { return e.Err }
+// Is makes errors.Is(err, ErrInput) true.
+func (e *measureError) Is(target error) bool { return target == ErrInput }
+
+func (e *measureError) Unwrap() error { return e.Err }
 
 // Rejection is one input row that was not imported, and why. It satisfies error so a
 // caller can report it like one.

@@ -12,7 +12,7 @@ func gather(ctx context.Context, o *Options, rs *resolver, pattern *regexp.Regex
 	if o.Recording != "" {
 		i, want := rs.find(o.Recording)
 		if want != "" {
-			return nil, &OptionError{Field: "Recording", Value: o.Recording, Want: want}
+			return nil, &optionError{Field: "Recording", Value: o.Recording, Want: want}
 		}
 		single = i
 	}
@@ -27,7 +27,7 @@ func gather(ctx context.Context, o *Options, rs *resolver, pattern *regexp.Regex
 		for _, key := range o.Files {
 			i, want := rs.find(key)
 			if want != "" {
-				return nil, &OptionError{Field: "Files", Value: key, Want: want}
+				return nil, &optionError{Field: "Files", Value: key, Want: want}
 			}
 			recs = append(recs, i)
 		}

@@ -37,13 +37,13 @@ type Mapping struct {
 // mappingKeys are the keys ParseMapping accepts, in the order they are documented.
 var mappingKeys = []string{"recording", "onset", "channel", "score", "onset-format"}
 
-// ParseMapping parses the --map flag:
+// ParseMapping parses a column mapping:
 //
 //	recording=COL,onset=COL,channel=COL,score=COL[,onset-format=seconds|clock]
 //
 // Every part is optional and may come in any order, but each key at most once; spaces
 // around parts, keys and values are ignored. Column names cannot contain commas. A
-// malformed part is a *MappingError naming it.
+// malformed part is a *mappingError naming it.
 func ParseMapping(spec string) (Mapping, error) {
 	var m Mapping
 	if strings.TrimSpace(spec) == "" {
@@ -51,7 +51,7 @@ func ParseMapping(spec string) (Mapping, error) {
 	}
 	seen := map[string]bool{}
 	for i, part := range strings.Split(spec, ",") {
-		bad := func(want string) error { return &MappingError{Spec: spec, Part: part, Index: i, Want: want} }
+		bad := func(want string) error { return &mappingError{Spec: spec, Part: part, Index: i, Want: want} }
 		p := strings.TrimSpace(part)
 		if p == "" {
 			return m, bad("KEY=VALUE, not an empty part")

@@ -37,7 +37,7 @@ func TestParseMappingMalformed(t *testing.T) {
 			t.Errorf("%q: accepted", c.spec)
 			continue
 		}
-		me := as[*MappingError](t, err)
+		me := as[*mappingError](t, err)
 		if me.Part != c.part || me.Index != c.index || me.Want == "" {
 			t.Errorf("%q: part %q index %d, want part %q index %d", c.spec, me.Part, me.Index, c.part, c.index)
 		}

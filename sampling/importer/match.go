@@ -84,16 +84,16 @@ func (r *resolver) find(key string) (int, string) {
 func (r *resolver) findBIDS(file string) (int, string) {
 	es := bidsEntities(file)
 	if len(es) == 0 {
-		return -1, "a BIDS file name (sub-<label>_…_events.tsv), a recording column, --recording or a mapping"
+		return -1, "a BIDS file name (sub-<label>_…_events.tsv), a recording column, a recording given for the file or a BIDS mapping"
 	}
 	k := entityString(es)
 	switch hits := r.byBIDS[k]; len(hits) {
 	case 0:
-		return -1, fmt.Sprintf("an indexed recording named %s_<suffix>.<ext>, a recording column, --recording or a mapping for %s", k, k)
+		return -1, fmt.Sprintf("an indexed recording named %s_<suffix>.<ext>, a recording column, a recording given for the file or a BIDS mapping for %s", k, k)
 	case 1:
 		return hits[0], ""
 	default:
-		return -1, fmt.Sprintf("one recording for %s; it names %s: give --recording or a mapping", k, r.ids(hits))
+		return -1, fmt.Sprintf("one recording for %s; it names %s: give a recording for the file or a BIDS mapping", k, r.ids(hits))
 	}
 }
 

@@ -73,10 +73,10 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		}
 		rows, notes, err := o.Measure(rec, onsets)
 		if err != nil {
-			return nil, &MeasureError{RecordingID: rec.RecordingID, Err: err}
+			return nil, &measureError{RecordingID: rec.RecordingID, Err: err}
 		}
 		if len(rows) != len(onsets) {
-			return nil, &MeasureError{RecordingID: rec.RecordingID,
+			return nil, &measureError{RecordingID: rec.RecordingID,
 				Err: fmt.Errorf("%d rows for %d onsets: want one row per onset", len(rows), len(onsets))}
 		}
 		for _, s := range notes {
@@ -104,7 +104,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		id := o.Recordings[i].RecordingID
 		name := id + ".parquet"
 		if id == "" || name != filepath.Base(name) || strings.HasPrefix(id, ".") || strings.ContainsAny(id, `/\`) {
-			return nil, &OptionError{Field: "Recordings", Value: id, Want: "recording ids usable as file names"}
+			return nil, &optionError{Field: "Recordings", Value: id, Want: "recording ids usable as file names"}
 		}
 		p := filepath.Join(res.Dir, name)
 		if err := candidate.Write(p, tables[k]); err != nil {
@@ -150,42 +150,42 @@ func earlierImport(dir string) ([]string, error) {
 // checkOptions validates o and compiles its pattern (nil when none applies).
 func checkOptions(o *Options) (*regexp.Regexp, error) {
 	if !safeSource.MatchString(o.Source) {
-		return nil, &OptionError{Field: "Source", Value: o.Source,
+		return nil, &optionError{Field: "Source", Value: o.Source,
 			Want: "a detector name of lower-case letters, digits, '.', '_' or '-', starting with a letter or digit, at most 64 characters"}
 	}
 	if o.Measure == nil {
-		return nil, &OptionError{Field: "Measure", Value: "nil", Want: "a function measuring the criterion features"}
+		return nil, &optionError{Field: "Measure", Value: "nil", Want: "a function measuring the criterion features"}
 	}
 	if o.OutDir == "" {
-		return nil, &OptionError{Field: "OutDir", Value: "", Want: "the study's candidates folder"}
+		return nil, &optionError{Field: "OutDir", Value: "", Want: "the study's candidates folder"}
 	}
 	if len(o.Recordings) == 0 {
-		return nil, &OptionError{Field: "Recordings", Value: "0 recordings", Want: "the archive index's recordings"}
+		return nil, &optionError{Field: "Recordings", Value: "0 recordings", Want: "the archive index's recordings"}
 	}
 	switch o.Kind {
 	case KindCSV, KindTSV, KindBIDS:
 		if len(o.Files) == 0 {
-			return nil, &OptionError{Field: "Files", Value: "", Want: "at least one event file"}
+			return nil, &optionError{Field: "Files", Value: "", Want: "at least one event file"}
 		}
 		if o.Recording != "" && len(o.Files) > 1 {
-			return nil, &OptionError{Field: "Recording", Value: o.Recording,
+			return nil, &optionError{Field: "Recording", Value: o.Recording,
 				Want: fmt.Sprintf("a single event file, not %d: give the others a recording column or mapping", len(o.Files))}
 		}
 	case KindEDFAnnotations:
 		if o.Pattern == "" {
-			return nil, &OptionError{Field: "Pattern", Value: "", Want: "a pattern selecting annotation texts, e.g. spike|sharp"}
+			return nil, &optionError{Field: "Pattern", Value: "", Want: "a pattern selecting annotation texts, e.g. spike|sharp"}
 		}
 		if o.Recording != "" {
-			return nil, &OptionError{Field: "Recording", Value: o.Recording, Want: "nothing for edf-annotations: name recordings in Files"}
+			return nil, &optionError{Field: "Recording", Value: o.Recording, Want: "nothing for edf-annotations: name recordings in Files"}
 		}
 	default:
-		return nil, &OptionError{Field: "Kind", Value: o.Kind, Want: "csv, tsv, bids or edf-annotations"}
+		return nil, &optionError{Field: "Kind", Value: o.Kind, Want: "csv, tsv, bids or edf-annotations"}
 	}
 	if o.Pattern == "" {
 		return nil, nil
 	}
 	if o.Kind == KindCSV || o.Kind == KindTSV {
-		return nil, &OptionError{Field: "Pattern", Value: o.Pattern, Want: "no pattern: it selects bids trial_type and edf-annotations texts"}
+		return nil, &optionError{Field: "Pattern", Value: o.Pattern, Want: "no pattern: it selects bids trial_type and edf-annotations texts"}
 	}
 	expr := o.Pattern
 	if !o.CaseSensitive {
@@ -193,7 +193,7 @@ func checkOptions(o *Options) (*regexp.Regexp, error) {
 	}
 	re, err := regexp.Compile(expr)
 	if err != nil {
-		return nil, &OptionError{Field: "Pattern", Value: o.Pattern, Want: "a Go regular expression: " + err.Error()}
+		return nil, &optionError{Field: "Pattern", Value: o.Pattern, Want: "a Go regular expression: " + err.Error()}
 	}
 	return re, nil
 }

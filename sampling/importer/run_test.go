@@ -141,7 +141,7 @@ func TestRunOptions(t *testing.T) {
 			t.Errorf("%s: accepted", c.name)
 			continue
 		}
-		if oe := as[*OptionError](t, err); oe.Field != c.field {
+		if oe := as[*optionError](t, err); oe.Field != c.field {
 			t.Errorf("%s: field %s, want %s", c.name, oe.Field, c.field)
 		}
 	}
@@ -150,7 +150,7 @@ func TestRunOptions(t *testing.T) {
 	o := base
 	o.Measure = func(r archive.Recording, on []float64) ([]candidate.Row, []string, error) { return nil, nil, nil }
 	_, err := Run(context.Background(), o)
-	if me := as[*MeasureError](t, err); me.RecordingID != "rec-aaaa" {
+	if me := as[*measureError](t, err); me.RecordingID != "rec-aaaa" {
 		t.Errorf("measure error %+v", me)
 	}
 	if _, err := os.Stat(filepath.Join(dir, "c")); !errors.Is(err, os.ErrNotExist) {

@@ -68,10 +68,10 @@ func sniffDelimiter(header []byte) rune {
 func readTable(r io.Reader, file string, delim rune) (*table, error) {
 	data, err := io.ReadAll(io.LimitReader(r, int64(maxTableBytes)+1))
 	if err != nil {
-		return nil, &ReadError{File: file, Err: err}
+		return nil, &readError{File: file, Err: err}
 	}
 	if len(data) > maxTableBytes {
-		return nil, &ReadError{File: file, Err: fmt.Errorf("more than %d bytes: split the table, or import one detector run at a time", maxTableBytes)}
+		return nil, &readError{File: file, Err: fmt.Errorf("more than %d bytes: split the table, or import one detector run at a time", maxTableBytes)}
 	}
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	if delim == 0 {
@@ -96,7 +96,7 @@ func readTable(r io.Reader, file string, delim rune) (*table, error) {
 			if errors.As(err, &pe) {
 				line, err = pe.StartLine, pe.Err
 			}
-			return nil, &ReadError{File: file, Line: line, Err: err}
+			return nil, &readError{File: file, Line: line, Err: err}
 		}
 		line, _ := cr.FieldPos(0)
 		for i := range rec {
@@ -109,19 +109,19 @@ func readTable(r io.Reader, file string, delim rune) (*table, error) {
 		t.rows = append(t.rows, tableRow{line: line, fields: rec})
 	}
 	if t.header == nil {
-		return nil, &ReadError{File: file, Err: errors.New("empty file: want a header line")}
+		return nil, &readError{File: file, Err: errors.New("empty file: want a header line")}
 	}
 	return t, nil
 }
 
 // column finds a header cell by name, ignoring case; -1 when absent. A name that occurs
-// twice is a *ColumnError, since either could be meant.
+// twice is a *columnError, since either could be meant.
 func (t *table) column(name string) (int, error) {
 	at := -1
 	for i, h := range t.header {
 		if strings.EqualFold(h, strings.TrimSpace(name)) {
 			if at >= 0 {
-				return -1, &ColumnError{File: t.file, Column: name,
+				return -1, &columnError{File: t.file, Column: name,
 					Want: fmt.Sprintf("one column of that name, found columns %d and %d", at+1, i+1)}
 			}
 			at = i
@@ -134,7 +134,7 @@ func (t *table) column(name string) (int, error) {
 func (t *table) need(name, role string) (int, error) {
 	i, err := t.column(name)
 	if err == nil && i < 0 {
-		err = &ColumnError{File: t.file, Column: name,
+		err = &columnError{File: t.file, Column: name,
 			Want: fmt.Sprintf("a %s column; the header has %s", role, strings.Join(quoteAll(t.header), ", "))}
 	}
 	return i, err

@@ -98,13 +98,13 @@ func TestReadCSV(t *testing.T) {
 
 	// A named column must exist; default names must too when required.
 	_, _, err = readCSV(strings.NewReader("recording,time\nrec-aaaa,1\n"), "t.csv", 0, Mapping{}, -1)
-	if ce := as[*ColumnError](t, err); ce.Column != "onset" || !strings.Contains(ce.Want, `"time"`) {
+	if ce := as[*columnError](t, err); ce.Column != "onset" || !strings.Contains(ce.Want, `"time"`) {
 		t.Errorf("missing onset: %+v", ce)
 	}
 	_, _, err = readCSV(strings.NewReader("recording,onset\nrec-aaaa,1\n"), "t.csv", 0, Mapping{Score: "p"}, -1)
-	as[*ColumnError](t, err)
+	as[*columnError](t, err)
 	_, _, err = readCSV(strings.NewReader("onset,Onset\n1,2\n"), "t.csv", 0, Mapping{}, 0)
-	as[*ColumnError](t, err)
+	as[*columnError](t, err)
 	// With a fixed recording no recording column is needed.
 	evs, _, err = readCSV(strings.NewReader("onset\n1\n2\n"), "t.csv", 0, Mapping{}, 1)
 	if err != nil || len(evs) != 2 || evs[1].rec != 1 {

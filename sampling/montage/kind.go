@@ -37,12 +37,15 @@ func ParseKind(s string) (Kind, error) {
 			return Kind(i), nil
 		}
 	}
-	return 0, &KindError{Name: s}
+	return 0, &kindError{Name: s}
 }
 
-// KindError reports an unknown montage name.
-type KindError struct{ Name string }
+// kindError reports an unknown montage name.
+type kindError struct{ Name string }
 
-func (e *KindError) Error() string {
+func (e *kindError) Error() string {
 	return fmt.Sprintf("montage: unknown kind %q (want one of %v)", e.Name, kindNames)
 }
+
+// Unwrap gives ErrInput, for errors.Is.
+func (e *kindError) Unwrap() error { return ErrInput }

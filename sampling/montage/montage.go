@@ -27,16 +27,19 @@ type Montage struct {
 	sets  [][]int // distinct Minus sets, shared by slice identity
 }
 
-// BuildError reports a montage that cannot be built.
-type BuildError struct {
+// buildError reports a montage that cannot be built.
+type buildError struct {
 	Kind  Kind
 	Field string // "bad", "kind" or "electrodes"
 	Msg   string
 }
 
-func (e *BuildError) Error() string {
+func (e *buildError) Error() string {
 	return fmt.Sprintf("montage: %s: %s: %s", e.Kind, e.Field, e.Msg)
 }
+
+// Unwrap gives ErrInput, for errors.Is.
+func (e *buildError) Unwrap() error { return ErrInput }
 
 // Build makes a montage of kind from a recording's channel labels
 // (normalised 10-10 names; other labels such as ECG are ignored) and
@@ -48,7 +51,7 @@ func (e *BuildError) Error() string {
 // electrode in the recording, not only the 10-20 subset.
 func Build(kind Kind, labels []string, bad []bool) (*Montage, []string, error) {
 	if bad != nil && len(bad) != len(labels) {
-		return nil, nil, &BuildError{Kind: kind, Field: "bad", Msg: fmt.Sprintf("%d flags for %d labels", len(bad), len(labels))}
+		return nil, nil, &buildError{Kind: kind, Field: "bad", Msg: fmt.Sprintf("%d flags for %d labels", len(bad), len(labels))}
 	}
 	isBad := func(i int) bool { return bad != nil && bad[i] }
 	var warn []string
@@ -104,10 +107,10 @@ func Build(kind Kind, labels []string, bad []bool) (*Montage, []string, error) {
 			}
 		}
 	default:
-		return nil, warn, &BuildError{Kind: kind, Field: "kind", Msg: "unknown montage kind"}
+		return nil, warn, &buildError{Kind: kind, Field: "kind", Msg: "unknown montage kind"}
 	}
 	if len(m.deriv) == 0 {
-		return nil, warn, &BuildError{Kind: kind, Field: "electrodes", Msg: "no derivation has all its electrodes present and good"}
+		return nil, warn, &buildError{Kind: kind, Field: "electrodes", Msg: "no derivation has all its electrodes present and good"}
 	}
 	m.groupMinus()
 	return m, warn, nil

@@ -168,12 +168,12 @@ func TestDegradation(t *testing.T) {
 		t.Errorf("warnings do not say why: %q", warn)
 	}
 	_, _, err = Build(TransverseBipolar, []string{"Fp1", "ECG"}, nil)
-	var be *BuildError
+	var be *buildError
 	if !errors.As(err, &be) || be.Field != "electrodes" {
-		t.Errorf("want BuildError on electrodes, got %v", err)
+		t.Errorf("want buildError on electrodes, got %v", err)
 	}
 	if _, _, err := Build(Referential, tenTwenty, []bool{true}); !errors.As(err, &be) || be.Field != "bad" {
-		t.Errorf("want BuildError on bad, got %v", err)
+		t.Errorf("want buildError on bad, got %v", err)
 	}
 }
 
@@ -210,7 +210,7 @@ func TestParseKind(t *testing.T) {
 			t.Errorf("%v: got %v, %v", k, got, err)
 		}
 	}
-	var ke *KindError
+	var ke *kindError
 	if _, err := ParseKind("banana"); !errors.As(err, &ke) || ke.Name != "banana" {
 		t.Errorf("got %v", err)
 	}

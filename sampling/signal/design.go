@@ -24,16 +24,16 @@ const MaxOrder = 12
 // sections by nearest pole–zero pairing (see toSOS).
 func Butterworth(kind Kind, order int, fs float64, edges ...float64) (SOS, error) {
 	if kind < LowPass || kind > BandStop {
-		return nil, &DesignError{Field: "kind", Value: float64(kind), Msg: "unknown filter kind"}
+		return nil, &designError{Field: "kind", Value: float64(kind), Msg: "unknown filter kind"}
 	}
 	if order < 1 || order > MaxOrder {
-		return nil, &DesignError{Field: "order", Value: float64(order), Msg: fmt.Sprintf("must be 1…%d", MaxOrder)}
+		return nil, &designError{Field: "order", Value: float64(order), Msg: fmt.Sprintf("must be 1…%d", MaxOrder)}
 	}
 	if !(fs > 0) || math.IsInf(fs, 0) {
-		return nil, &DesignError{Field: "fs", Value: fs, Msg: "must be positive and finite"}
+		return nil, &designError{Field: "fs", Value: fs, Msg: "must be positive and finite"}
 	}
 	if len(edges) != kind.edges() {
-		return nil, &DesignError{Field: "edges", Value: float64(len(edges)), Msg: fmt.Sprintf("%s needs %d edge frequencies", kind, kind.edges())}
+		return nil, &designError{Field: "edges", Value: float64(len(edges)), Msg: fmt.Sprintf("%s needs %d edge frequencies", kind, kind.edges())}
 	}
 	// Design at a normalised rate of 2 (Nyquist = 1) so coefficients do
 	// not depend on the scale of fs.
@@ -41,12 +41,12 @@ func Butterworth(kind Kind, order int, fs float64, edges ...float64) (SOS, error
 	w := make([]float64, len(edges))
 	for i, e := range edges {
 		if !(e > 0 && e < fs/2) {
-			return nil, &DesignError{Field: fmt.Sprintf("edges[%d]", i), Value: e, Msg: fmt.Sprintf("must lie strictly between 0 and fs/2 = %g", fs/2)}
+			return nil, &designError{Field: fmt.Sprintf("edges[%d]", i), Value: e, Msg: fmt.Sprintf("must lie strictly between 0 and fs/2 = %g", fs/2)}
 		}
 		w[i] = 2 * fsn * math.Tan(math.Pi*e/fs)
 	}
 	if len(w) == 2 && !(edges[0] < edges[1]) {
-		return nil, &DesignError{Field: "edges[1]", Value: edges[1], Msg: "must exceed edges[0]"}
+		return nil, &designError{Field: "edges[1]", Value: edges[1], Msg: "must exceed edges[0]"}
 	}
 	proto := zpk{p: ButterworthPoles(order), k: 1}
 	var a zpk
@@ -79,13 +79,13 @@ func Butterworth(kind Kind, order int, fs float64, edges ...float64) (SOS, error
 // such as spikes. Typical use: f0 = 50 or 60, q = 30 (Δf ≈ 2 Hz).
 func Notch(f0, q, fs float64) (SOS, error) {
 	if !(fs > 0) || math.IsInf(fs, 0) {
-		return nil, &DesignError{Field: "fs", Value: fs, Msg: "must be positive and finite"}
+		return nil, &designError{Field: "fs", Value: fs, Msg: "must be positive and finite"}
 	}
 	if !(f0 > 0 && f0 < fs/2) {
-		return nil, &DesignError{Field: "f0", Value: f0, Msg: fmt.Sprintf("must lie strictly between 0 and fs/2 = %g", fs/2)}
+		return nil, &designError{Field: "f0", Value: f0, Msg: fmt.Sprintf("must lie strictly between 0 and fs/2 = %g", fs/2)}
 	}
 	if !(q > 0) || math.IsInf(q, 0) {
-		return nil, &DesignError{Field: "q", Value: q, Msg: "must be positive and finite"}
+		return nil, &designError{Field: "q", Value: q, Msg: "must be positive and finite"}
 	}
 	w0 := 2 * math.Pi * f0 / fs
 	beta := math.Tan(w0 / (2 * q))

@@ -222,9 +222,9 @@ func TestDesignErrors(t *testing.T) {
 		{"f0", func() error { _, err := Notch(150, 30, 256); return err }},
 	}
 	for _, c := range cases {
-		var de *DesignError
+		var de *designError
 		if err := c.run(); !errors.As(err, &de) || de.Field != c.field {
-			t.Errorf("want DesignError on %q, got %v", c.field, err)
+			t.Errorf("want designError on %q, got %v", c.field, err)
 		}
 	}
 }

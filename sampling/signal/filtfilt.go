@@ -112,7 +112,7 @@ func (f *ZeroPhase) Apply32(x []float32) error {
 // extend sizes the scratch for n samples plus padding.
 func (f *ZeroPhase) extend(n int) ([]float64, error) {
 	if n <= f.pad {
-		return nil, &ShortSignalError{N: n, Pad: f.pad}
+		return nil, &shortSignalError{N: n, Pad: f.pad}
 	}
 	m := n + 2*f.pad
 	if cap(f.ext) < m {
@@ -144,7 +144,7 @@ func (f *ZeroPhase) start(v float64) {
 }
 
 // FiltFilt filters x forward and backward through sos in place; see
-// ZeroPhase for edge handling. It returns a *ShortSignalError when x has no
+// ZeroPhase for edge handling. It returns a *shortSignalError when x has no
 // more samples than the edge padding.
 func FiltFilt(sos SOS, x []float64) error {
 	return NewZeroPhase(sos).Apply(x)

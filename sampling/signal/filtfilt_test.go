@@ -156,7 +156,7 @@ func TestFiltFiltShort(t *testing.T) {
 	if zp.Pad() != 3*(2*5+1) { // 5 sections, none first-order
 		t.Errorf("pad %d", zp.Pad())
 	}
-	var se *ShortSignalError
+	var se *shortSignalError
 	if err := FiltFilt(sos, make([]float64, zp.Pad())); !errors.As(err, &se) || se.Pad != zp.Pad() {
 		t.Errorf("got %v", err)
 	}
@@ -259,7 +259,7 @@ func TestConditionerMatchesWhole(t *testing.T) {
 	if worst < 100*limit {
 		t.Errorf("zero margin deviates only %g", worst)
 	}
-	var we *WindowError
+	var we *windowError
 	if err := c.Read(0, int64(n-10), make([]float32, 20)); !errors.As(err, &we) || we.End != int64(n+10) {
 		t.Errorf("got %v", err)
 	}
@@ -340,7 +340,7 @@ func TestStreamMatchesWhole(t *testing.T) {
 		t.Fatal(err)
 	}
 	collect(out)
-	var se *ShapeError
+	var se *shapeError
 	if _, err := s.Push([][]float32{{1}, {1, 2}}); !errors.As(err, &se) || se.Channel != 1 {
 		t.Errorf("ragged chunk: got %v", err)
 	}

@@ -28,10 +28,10 @@ type Stream struct {
 // margin (see Margin) and minimum release size block, both in samples.
 func NewStream(sos SOS, channels, margin, block int) (*Stream, error) {
 	if channels < 1 {
-		return nil, &DesignError{Field: "channels", Value: float64(channels), Msg: "must be positive"}
+		return nil, &designError{Field: "channels", Value: float64(channels), Msg: "must be positive"}
 	}
 	if margin < 0 {
-		return nil, &DesignError{Field: "margin", Value: float64(margin), Msg: "must not be negative"}
+		return nil, &designError{Field: "margin", Value: float64(margin), Msg: "must not be negative"}
 	}
 	zp := NewZeroPhase(sos)
 	// at least one sample more than the padding on each side, so every
@@ -53,11 +53,11 @@ func (s *Stream) Emitted() int64 { return s.emitted }
 // nothing is released yet.
 func (s *Stream) Push(chunk [][]float32) ([][]float32, error) {
 	if len(chunk) != len(s.buf) {
-		return nil, &ShapeError{Channel: -1, Got: len(chunk), Want: len(s.buf)}
+		return nil, &shapeError{Channel: -1, Got: len(chunk), Want: len(s.buf)}
 	}
 	for c := range chunk {
 		if len(chunk[c]) != len(chunk[0]) {
-			return nil, &ShapeError{Channel: c, Got: len(chunk[c]), Want: len(chunk[0])}
+			return nil, &shapeError{Channel: c, Got: len(chunk[c]), Want: len(chunk[0])}
 		}
 	}
 	for c := range chunk {
@@ -72,11 +72,11 @@ func (s *Stream) Push(chunk [][]float32) ([][]float32, error) {
 }
 
 // Flush releases everything not yet released, filtering up to the true
-// end of the recording. It returns a *ShortSignalError if the whole
+// end of the recording. It returns a *shortSignalError if the whole
 // recording is no longer than the edge padding.
 func (s *Stream) Flush() ([][]float32, error) {
 	if s.total <= int64(s.zp.Pad()) {
-		return nil, &ShortSignalError{N: int(s.total), Pad: s.zp.Pad()}
+		return nil, &shortSignalError{N: int(s.total), Pad: s.zp.Pad()}
 	}
 	return s.release(s.total)
 }
@@ -94,7 +94,7 @@ func (s *Stream) release(end int64) ([][]float32, error) {
 		x := s.scratch[:len(w)]
 		copy(x, w)
 		if err := s.zp.Apply32(x); err != nil {
-			return nil, &WindowError{Channel: c, Start: s.emitted, End: end, Err: err}
+			return nil, &windowError{Channel: c, Start: s.emitted, End: end, Err: err}
 		}
 		out[c] = append([]float32(nil), x[s.emitted-lo:end-lo]...)
 	}

@@ -39,10 +39,10 @@ type Conditioner struct {
 func NewConditioner(sos SOS, src Source, n int64, margin int) (*Conditioner, error) {
 	zp := NewZeroPhase(sos)
 	if n <= int64(zp.Pad()) {
-		return nil, &ShortSignalError{N: int(n), Pad: zp.Pad()}
+		return nil, &shortSignalError{N: int(n), Pad: zp.Pad()}
 	}
 	if margin < 0 {
-		return nil, &DesignError{Field: "margin", Value: float64(margin), Msg: "must not be negative"}
+		return nil, &designError{Field: "margin", Value: float64(margin), Msg: "must not be negative"}
 	}
 	return &Conditioner{src: src, n: n, margin: margin, zp: zp}, nil
 }
@@ -52,11 +52,11 @@ func (c *Conditioner) Margin() int { return c.margin }
 
 // Read fills dst with filtered samples [start, start+len(dst)) of channel
 // ch. Errors from the source, and ranges outside the recording, are
-// returned as *WindowError.
+// returned as *windowError.
 func (c *Conditioner) Read(ch int, start int64, dst []float32) error {
 	end := start + int64(len(dst))
 	if start < 0 || end > c.n {
-		return &WindowError{Channel: ch, Start: start, End: end, Err: errOutside}
+		return &windowError{Channel: ch, Start: start, End: end, Err: errOutside}
 	}
 	lo := max(start-int64(c.margin), 0)
 	hi := min(end+int64(c.margin), c.n)
@@ -72,10 +72,10 @@ func (c *Conditioner) Read(ch int, start int64, dst []float32) error {
 	}
 	buf := c.buf[:m]
 	if err := c.src.ReadAt(ch, lo, buf); err != nil {
-		return &WindowError{Channel: ch, Start: start, End: end, Err: err}
+		return &windowError{Channel: ch, Start: start, End: end, Err: err}
 	}
 	if err := c.zp.Apply32(buf); err != nil {
-		return &WindowError{Channel: ch, Start: start, End: end, Err: err}
+		return &windowError{Channel: ch, Start: start, End: end, Err: err}
 	}
 	copy(dst, buf[start-lo:])
 	return nil

@@ -52,11 +52,11 @@ func newBackground(cfg *Config, layout, noise *rand.Rand) (*background, error) {
 	fwd := func(pos, mom [3]float64) ([]float64, error) {
 		v := cfg.Forward(cfg.Electrodes, pos, mom)
 		if len(v) != nEEG {
-			return nil, &ForwardError{Pos: pos, Moment: mom, Got: len(v), Want: nEEG}
+			return nil, &forwardError{Pos: pos, Moment: mom, Got: len(v), Want: nEEG}
 		}
 		for _, x := range v {
 			if math.IsNaN(x) || math.IsInf(x, 0) {
-				return nil, &ForwardError{Pos: pos, Moment: mom, Got: len(v), Want: nEEG}
+				return nil, &forwardError{Pos: pos, Moment: mom, Got: len(v), Want: nEEG}
 			}
 		}
 		return slices.Clone(v), nil
@@ -86,7 +86,7 @@ func newBackground(cfg *Config, layout, noise *rand.Rand) (*background, error) {
 		m = (med[nEEG/2-1] + med[nEEG/2]) / 2
 	}
 	if m == 0 {
-		return nil, &ForwardError{Want: nEEG, Got: nEEG}
+		return nil, &forwardError{Want: nEEG, Got: nEEG}
 	}
 	k := math.Sqrt((1-localShare)/m) * cfg.BackgroundRMS
 	for _, g := range cols {

@@ -1,6 +1,7 @@
 package synth
 
 import (
+	"errors"
 	"fmt"
 	"math"
 )
@@ -59,6 +60,12 @@ type ConfigError struct {
 func (e *ConfigError) Error() string {
 	return fmt.Sprintf("synth: config %s=%v: %s", e.Field, e.Value, e.Reason)
 }
+
+// ErrConfig is matched by errors.Is on a ConfigError.
+var ErrConfig = errors.New("synth: unusable configuration")
+
+// Unwrap gives ErrConfig.
+func (e *ConfigError) Unwrap() error { return ErrConfig }
 
 // withDefaults returns cfg with defaults filled in, or the first invalid field.
 func (cfg Config) withDefaults() (Config, error) {

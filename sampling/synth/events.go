@@ -9,18 +9,21 @@ import (
 	"strings"
 )
 
-// ForwardError reports a forward model answer that cannot be used.
-type ForwardError struct {
+// forwardError reports a forward model answer that cannot be used.
+type forwardError struct {
 	Pos, Moment [3]float64
 	Got, Want   int // lengths; equal when the values are all zero or not finite
 }
 
-func (e *ForwardError) Error() string {
+func (e *forwardError) Error() string {
 	if e.Got != e.Want {
 		return fmt.Sprintf("synth: forward model returned %d potentials for %d electrodes (dipole at %v)", e.Got, e.Want, e.Pos)
 	}
 	return fmt.Sprintf("synth: forward model returned no usable field for dipole at %v moment %v", e.Pos, e.Moment)
 }
+
+// Unwrap gives ErrInput, for errors.Is.
+func (e *forwardError) Unwrap() error { return ErrInput }
 
 // plan is an event with its rendering relative to the peak sample.
 type plan struct {
@@ -57,19 +60,19 @@ func logUni(r *rand.Rand, lo, hi float64) float64 {
 func (m *eventMaker) field(pos, mom [3]float64) ([]float64, int, error) {
 	v := m.cfg.Forward(m.cfg.Electrodes, pos, mom)
 	if len(v) != m.nEEG {
-		return nil, 0, &ForwardError{Pos: pos, Moment: mom, Got: len(v), Want: m.nEEG}
+		return nil, 0, &forwardError{Pos: pos, Moment: mom, Got: len(v), Want: m.nEEG}
 	}
 	best := -1
 	for c, x := range v {
 		if math.IsNaN(x) || math.IsInf(x, 0) {
-			return nil, 0, &ForwardError{Pos: pos, Moment: mom, Got: len(v), Want: m.nEEG}
+			return nil, 0, &forwardError{Pos: pos, Moment: mom, Got: len(v), Want: m.nEEG}
 		}
 		if best < 0 || math.Abs(x) > math.Abs(v[best]) {
 			best = c
 		}
 	}
 	if v[best] == 0 {
-		return nil, 0, &ForwardError{Pos: pos, Moment: mom, Got: len(v), Want: m.nEEG}
+		return nil, 0, &forwardError{Pos: pos, Moment: mom, Got: len(v), Want: m.nEEG}
 	}
 	g := make([]float64, m.nChan)
 	for c, x := range v {

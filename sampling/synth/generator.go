@@ -36,18 +36,21 @@ type Generator struct {
 	truth  []Event
 }
 
-// ChunkError reports a destination buffer of the wrong shape.
-type ChunkError struct {
+// chunkError reports a destination buffer of the wrong shape.
+type chunkError struct {
 	Channel   int // −1 when the number of channels is wrong
 	Got, Want int
 }
 
-func (e *ChunkError) Error() string {
+func (e *chunkError) Error() string {
 	if e.Channel < 0 {
 		return fmt.Sprintf("synth: chunk has %d channels, want %d", e.Got, e.Want)
 	}
 	return fmt.Sprintf("synth: chunk channel %d has %d samples, want %d", e.Channel, e.Got, e.Want)
 }
+
+// Unwrap gives ErrInput, for errors.Is.
+func (e *chunkError) Unwrap() error { return ErrInput }
 
 // NewGenerator validates cfg, lays out the sources and schedules the events.
 func NewGenerator(cfg Config) (*Generator, error) {
@@ -126,12 +129,12 @@ func (g *Generator) Config() Config { return g.cfg }
 // how the recording is cut into chunks.
 func (g *Generator) Read(dst [][]float32) (int, error) {
 	if len(dst) != len(g.labels) {
-		return 0, &ChunkError{Channel: -1, Got: len(dst), Want: len(g.labels)}
+		return 0, &chunkError{Channel: -1, Got: len(dst), Want: len(g.labels)}
 	}
 	k := min(len(dst[0]), g.n-g.pos)
 	for c := range dst {
 		if len(dst[c]) < k {
-			return 0, &ChunkError{Channel: c, Got: len(dst[c]), Want: k}
+			return 0, &chunkError{Channel: c, Got: len(dst[c]), Want: k}
 		}
 	}
 	if k <= 0 {

@@ -371,12 +371,12 @@ func TestConfigErrors(t *testing.T) {
 		t.Errorf("exponent 2: %v", err)
 	}
 	short := func(e []string, p, m [3]float64) []float64 { return make([]float64, len(e)-1) }
-	var fe *ForwardError
+	var fe *forwardError
 	if _, err := Generate(Config{Forward: short}); !errors.As(err, &fe) || fe.Got != 18 || fe.Want != 19 {
 		t.Errorf("short forward: %v", err)
 	}
 	g, _ := NewGenerator(Config{Forward: standInForward, Duration: 4})
-	var ch *ChunkError
+	var ch *chunkError
 	if _, err := g.Read(make([][]float32, 3)); !errors.As(err, &ch) || ch.Want != 21 {
 		t.Errorf("bad chunk: %v", err)
 	}

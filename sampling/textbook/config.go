@@ -1,6 +1,7 @@
 package textbook
 
 import (
+	"errors"
 	"fmt"
 	"math"
 
@@ -34,6 +35,12 @@ type ConfigError struct {
 func (e *ConfigError) Error() string {
 	return fmt.Sprintf("textbook: config %s=%v: %s", e.Field, e.Value, e.Reason)
 }
+
+// ErrConfig is matched by errors.Is on a ConfigError.
+var ErrConfig = errors.New("textbook: unusable configuration")
+
+// Unwrap gives ErrConfig.
+func (e *ConfigError) Unwrap() error { return ErrConfig }
 
 func (c Config) withDefaults() (Config, error) {
 	if c.Rate == 0 {

@@ -1,6 +1,7 @@
 package accuracy
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"slices"
@@ -66,6 +67,12 @@ func (e *NoPointError) Error() string {
 	}
 	return b.String()
 }
+
+// ErrNoPoint is matched by errors.Is on a NoPointError.
+var ErrNoPoint = errors.New("accuracy: no operating point meets the policy")
+
+// Unwrap gives ErrNoPoint.
+func (e *NoPointError) Unwrap() error { return ErrNoPoint }
 
 // Choose returns the index of the operating point that policy p selects,
 // with the eligibility and tie-breaking rules documented on each

@@ -71,15 +71,18 @@ func (p Policy) String() string {
 	return p.Kind.String() + "=" + strconv.FormatFloat(p.Value, 'g', -1, 64)
 }
 
-// PolicyError reports a policy string that ParsePolicy cannot read.
-type PolicyError struct {
+// policyError reports a policy string that ParsePolicy cannot read.
+type policyError struct {
 	Input  string // the policy string as given
 	Expect string // what was expected instead
 }
 
-func (e *PolicyError) Error() string {
+func (e *policyError) Error() string {
 	return fmt.Sprintf("accuracy: policy %q: expected %s", e.Input, e.Expect)
 }
+
+// Unwrap gives ErrPolicy, for errors.Is.
+func (e *policyError) Unwrap() error { return ErrPolicy }
 
 const policyForms = `one of "youden", "min-specificity=P", "min-sensitivity=P", "max-false-per-hour=R", "cost-ratio=R"`
 
@@ -100,34 +103,34 @@ func ParsePolicy(s string) (Policy, error) {
 		}
 	}
 	if kind < 0 {
-		return Policy{}, &PolicyError{Input: s, Expect: policyForms}
+		return Policy{}, &policyError{Input: s, Expect: policyForms}
 	}
 	p := Policy{Kind: PolicyKind(kind)}
 	if p.Kind == Youden {
 		if hasVal {
-			return Policy{}, &PolicyError{Input: s, Expect: `"youden" without a value`}
+			return Policy{}, &policyError{Input: s, Expect: `"youden" without a value`}
 		}
 		return p, nil
 	}
 	if !hasVal {
-		return Policy{}, &PolicyError{Input: s, Expect: fmt.Sprintf("%s=<number>", name)}
+		return Policy{}, &policyError{Input: s, Expect: fmt.Sprintf("%s=<number>", name)}
 	}
 	v, err := strconv.ParseFloat(strings.TrimSpace(val), 64)
 	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-		return Policy{}, &PolicyError{Input: s, Expect: fmt.Sprintf("a finite number after %q", name+"=")}
+		return Policy{}, &policyError{Input: s, Expect: fmt.Sprintf("a finite number after %q", name+"=")}
 	}
 	switch p.Kind {
 	case MinSpecificity, MinSensitivity:
 		if v < 0 || v > 1 {
-			return Policy{}, &PolicyError{Input: s, Expect: "a proportion between 0 and 1"}
+			return Policy{}, &policyError{Input: s, Expect: "a proportion between 0 and 1"}
 		}
 	case MaxFalsePerHour:
 		if v < 0 {
-			return Policy{}, &PolicyError{Input: s, Expect: "a non-negative rate per hour"}
+			return Policy{}, &policyError{Input: s, Expect: "a non-negative rate per hour"}
 		}
 	case CostRatio:
 		if v <= 0 {
-			return Policy{}, &PolicyError{Input: s, Expect: "a positive cost ratio"}
+			return Policy{}, &policyError{Input: s, Expect: "a positive cost ratio"}
 		}
 	}
 	p.Value = v

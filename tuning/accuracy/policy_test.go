@@ -43,9 +43,9 @@ func TestParsePolicy(t *testing.T) {
 		{"cost-ratio=NaN", "finite number"},
 	} {
 		_, err := ParsePolicy(c.in)
-		var pe *PolicyError
+		var pe *policyError
 		if !errors.As(err, &pe) || pe.Input != c.in || !strings.Contains(pe.Expect, c.expect) {
-			t.Errorf("ParsePolicy(%q) error %v; want PolicyError expecting %q", c.in, err, c.expect)
+			t.Errorf("ParsePolicy(%q) error %v; want policyError expecting %q", c.in, err, c.expect)
 		}
 		if err != nil && !strings.Contains(err.Error(), c.in) {
 			t.Errorf("error %q does not name the input", err)

@@ -74,6 +74,12 @@ func (e *ConfigError) Error() string {
 	return fmt.Sprintf("%s: field %q: got %q, want %s", e.File, e.Field, e.Got, e.Want)
 }
 
+// ErrConfig is matched by errors.Is on a ConfigError.
+var ErrConfig = errors.New("unusable study configuration")
+
+// Unwrap gives ErrConfig.
+func (e *ConfigError) Unwrap() error { return ErrConfig }
+
 // ReadConfig parses and checks study.yaml. Unknown fields are refused so that a typo
 // does not silently fall back to a default.
 func ReadConfig(path string) (*Config, error) {

@@ -7,7 +7,7 @@ import (
 
 // protocolTemplate is the commented study.yaml that init writes. The comments are the
 // protocol's documentation: a coordinator edits this file, not a hidden default.
-var protocolTemplate = template.Must(template.New("study.yaml").Funcs(template.FuncMap{
+var protocolTemplate = template.Must(template.New(ConfigFile).Funcs(template.FuncMap{
 	"quote": func(s string) string { return "'" + strings.ReplaceAll(s, "'", "''") + "'" },
 }).Parse(`# quorate study protocol.
 # Every command reads this file; a command-line flag overrides a value for one run only.
