@@ -34,6 +34,10 @@ type Options struct {
 	// Run; 200 is the count Harrell, Lee & Mark (1996) work with (from
 	// memory), and the coverage study (README) was measured with it.
 	HeadlineReplicates int
+	// HeadlineVariants also computes, from the same replicates, the
+	// estimators the headline was compared with (Headline.Variants); for
+	// the coverage study's design work.
+	HeadlineVariants bool
 	// Method fits the automatic rule: MethodJoint (the default, for "") or
 	// MethodCriterion. The joint search is the default because on the
 	// project's generator its chosen rules reach a higher true sensitivity
