@@ -83,19 +83,44 @@ func fitMajority(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
 			}
 		}
 		placeCuts(s, f, &f.cut)
+		// One pass: weights by the number of criteria met (0…6), then
+		// every k from sums over those levels.
+		var pw, nw, cw [7]float64 // positives, negatives, negative candidates
+		for i, e := range s.src {
+			n := 0
+			for j := range 6 {
+				if f.active[j] && f.dir[j]*e.Features[j] >= f.cut[j] {
+					n++
+				}
+			}
+			w := s.weight[i]
+			switch {
+			case s.truth[i]:
+				pw[n] += w
+			default:
+				nw[n] += w
+				if s.candidate[i] {
+					cw[n] += w
+				}
+			}
+		}
 		var kpts [6]accuracy.Point
 		for k := 1; k <= 6; k++ {
 			bk := &f.byK[k-1]
 			bk.cut = f.cut
+			var c accuracy.Confusion
 			var fc float64
-			hit := make([]bool, s.n())
-			for i, e := range s.src {
-				hit[i] = f.hits(e, &f.cut, k)
-				if hit[i] && !s.truth[i] && s.candidate[i] {
-					fc += s.weight[i]
+			for n := range 7 {
+				if n >= k {
+					c.TP += pw[n]
+					c.FP += nw[n]
+					fc += cw[n]
+				} else {
+					c.FN += pw[n]
+					c.TN += nw[n]
 				}
 			}
-			bk.w = accuracy.Tally(hit, s.truth, s.weight)
+			bk.w = c
 			bk.fp = fc // a weighted count, as in fitAuto
 			bk.point = accuracy.NewPoint(float64(k), bk.w, 1)
 			bk.point.FalsePerHour = falsePerHour(fc, s.hours)
