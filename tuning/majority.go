@@ -26,9 +26,9 @@ const (
 // fitRule fits the automatic rule by method on s.
 func fitRule(s *evset, method string, p accuracy.Policy) (*autoFit, []string, error) {
 	switch method {
-	case MethodJoint, "":
+	case MethodJoint:
 		return fitAuto(s, p)
-	case MethodCriterion:
+	case MethodCriterion, "":
 		return fitMajority(s, p)
 	}
 	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want %q or %q, got %q", MethodCriterion, MethodJoint, method)}

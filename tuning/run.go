@@ -102,7 +102,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 
 	method := o.Method
 	if method == "" {
-		method = MethodJoint
+		method = MethodCriterion
 	}
 	f, fw, err := fitRule(s, method, o.Policy)
 	for _, w := range fw {
@@ -199,5 +199,5 @@ func analysisName(method string) string {
 	if method == MethodJoint {
 		return "automatic rule: at least k criteria met, six cutoffs and k searched jointly against the reference standard"
 	}
-	return "automatic rule: at least k criteria met, each cutoff fitted to its criterion's panel majority (Youden's J), k chosen against the reference standard"
+	return "automatic rule: at least k criteria met, each cutoff fitted to its criterion's panel majority at one shared point of their ROCs (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
 }
