@@ -150,3 +150,20 @@ func TestControlSummary(t *testing.T) {
 		t.Errorf("zero IEDs: %+v", c.MissedPerHour)
 	}
 }
+
+// TestCriterionTargets reads cutoffs off a hand-made ROC: thresholds run
+// from +Inf down, sensitivity rises and specificity falls along them. A
+// sensitivity target takes the highest threshold reaching it, a
+// specificity target (negative) the lowest (definitions of
+// criterionTargets, worked by hand).
+func TestCriterionTargets(t *testing.T) {
+	f := criterionFit{cut: 2, th: []float64{math.Inf(1), 3, 2, 1},
+		weighed: []accuracy.Confusion{{TP: 0, FN: 10, TN: 10, FP: 0}, {TP: 4, FN: 6, TN: 9, FP: 1}, {TP: 8, FN: 2, TN: 6, FP: 4}, {TP: 10, FN: 0, TN: 0, FP: 10}}}
+	for _, c := range []struct{ target, want float64 }{
+		{0, 2}, {0.4, 3}, {0.5, 2}, {0.8, 2}, {0.9, 1}, {-0.9, 3}, {-0.8, 3}, {-0.6, 2}, {-0.5, 2}, {-1, math.Inf(1)},
+	} {
+		if got := f.at(c.target); got != c.want {
+			t.Errorf("at(%v) = %v, want %v", c.target, got, c.want)
+		}
+	}
+}

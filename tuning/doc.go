@@ -27,7 +27,7 @@
 // labelled so.
 //
 // The automatic rule "at least k criteria met at these cutoffs" is fitted
-// by the joint search (MethodJoint, the default) or with each cutoff fitted
-// to its criterion's own panel majority (MethodCriterion); the report shows
+// with each cutoff fitted to its criterion's own panel majority
+// (MethodCriterion, the default) or by the joint search (MethodJoint); the report shows
 // the other method's honest figures beside the chosen one's.
 package tuning

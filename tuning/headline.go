@@ -9,12 +9,14 @@ import (
 	"sync"
 	"sync/atomic"
 
+	"gonum.org/v1/gonum/stat/distuv"
+
 	"github.com/quorate-eeg/quorate/internal/progress"
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
 )
 
 // HeadlineMethod names the estimator behind Headline.
-const HeadlineMethod = "optimism-corrected subject bootstrap (Harrell, Lee & Mark 1996), whole selection repeated in every replicate; basic bootstrap interval"
+const HeadlineMethod = "optimism-corrected subject bootstrap (Harrell, Lee & Mark 1996), whole selection repeated in every replicate; basic bootstrap interval widened for few subjects (t with subjects − 1 df)"
 
 // minHeadlineSubjects is the fewest subjects a subject-resampled interval is
 // given for: with fewer, the resamples take too few distinct values to
@@ -36,9 +38,19 @@ const minHeadlineSubjects = 5
 // minus the mean optimism. Reading the original events as the population
 // and the replicate as a study drawn from it, d_b is the error that study
 // makes in judging its own chosen rule, so the interval is the basic
-// bootstrap interval [A − q(1−α/2), A − q(α/2)] of the d_b (Davison &
-// Hinkley 1997, Bootstrap Methods and their Application, §5.2), clipped to the figure's range. It carries both the
-// sampling error of the estimate and the spread of the selection.
+// bootstrap interval of the d_b (Davison & Hinkley 1997, Bootstrap Methods
+// and their Application, §5.2) about the estimate E = A − d̄,
+//
+//	[E − c·(q(1−α/2) − d̄), E − c·(q(α/2) − d̄)],
+//
+// clipped to the figure's range, where q are the d_b's percentiles. It
+// carries both the sampling error of the estimate and the spread of the
+// selection. With a subjects, c = √(a/(a−1)) · t(a−1, 1−α/2) / z(1−α/2)
+// widens it for few subjects: resampling a clusters understates the
+// variance by the factor (a−1)/a (Davison & Hinkley 1997, §3.8), and a
+// design with a primary sampling units has a − 1 degrees of freedom
+// (Korn & Graubard 1999, Analysis of Health Surveys, §5.2; from memory).
+// With 8 subjects c = 1.29; c → 1 as a grows.
 //
 // Rates are undefined (NaN) in a replicate with an empty denominator; such
 // replicates are left out of that figure. An interval is withheld (NaN,
@@ -51,6 +63,7 @@ type Headline struct {
 	Sens, Spec, PPV, FalsePerHour Estimate
 	Optimism                      [4]float64 // mean d_b of sensitivity, specificity, PPV, false per hour
 	Notes                         []string   // why an interval is withheld
+	variants                      map[string][4]Estimate
 }
 
 // figures are the headline's four design-weighted figures of decisions hit.
@@ -74,7 +87,7 @@ func (f *autoFit) decide(s *evset) []bool {
 }
 
 // headline computes Headline for the rule f fitted on s by method.
-func headline(ctx context.Context, s *evset, f *autoFit, method string, p accuracy.Policy, B int, seed uint64, level float64, bar progress.Bar) (*Headline, error) {
+func headline(ctx context.Context, s *evset, f *autoFit, method string, p accuracy.Policy, B int, seed uint64, level float64, bar progress.Bar, withVariants bool) (*Headline, error) {
 	h := &Headline{Method: HeadlineMethod, Replicates: B}
 	hit := f.decide(s)
 	app := figures(s, hit)
@@ -87,8 +100,9 @@ func headline(ctx context.Context, s *evset, f *autoFit, method string, p accura
 		draws[b] = accuracy.ClusterResample(s.subject, rng)
 	}
 	type rep struct {
-		d  [4]float64
-		ok bool
+		d   [4]float64
+		hit []bool // the replicate's rule applied to the original events
+		ok  bool
 	}
 	reps := make([]rep, B)
 	var next atomic.Int64
@@ -107,7 +121,9 @@ func headline(ctx context.Context, s *evset, f *autoFit, method string, p accura
 				// A resample on which no rule can be fitted (a one-sided
 				// majority everywhere) says nothing about optimism.
 				if fb, _, _ := fitRule(sb, method, p); fb != nil {
-					ab, ob := figures(sb, fb.decide(sb)), figures(s, fb.decide(s))
+					hs := fb.decide(s)
+					ab, ob := figures(sb, fb.decide(sb)), figures(s, hs)
+					reps[b].hit = hs
 					for m := range 4 {
 						reps[b].d[m] = ab[m] - ob[m]
 					}
@@ -134,6 +150,11 @@ func headline(ctx context.Context, s *evset, f *autoFit, method string, p accura
 			}
 		}
 	}
+	subjects := map[string]bool{}
+	for _, x := range s.subject {
+		subjects[x] = true
+	}
+	c := fewSubjects(len(subjects), level)
 	out := [4]*Estimate{&h.Sens, &h.Spec, &h.PPV, &h.FalsePerHour}
 	upper := [4]float64{1, 1, 1, math.Inf(1)}
 	for m := range out {
@@ -148,15 +169,16 @@ func headline(ctx context.Context, s *evset, f *autoFit, method string, p accura
 		}
 		mean /= float64(len(d[m]))
 		h.Optimism[m] = mean
-		qlo, qhi := percentiles(d[m], level)
+		qlo, qhi := percentiles(append([]float64(nil), d[m]...), level)
 		clip := func(x float64) float64 { return math.Min(math.Max(x, 0), upper[m]) }
-		*out[m] = Estimate{clip(app[m] - mean), clip(app[m] - qhi), clip(app[m] - qlo)}
+		e := app[m] - mean
+		*out[m] = Estimate{clip(e), clip(e - c*(qhi-mean)), clip(e - c*(qlo-mean))}
 	}
-	subjects := map[string]bool{}
-	for _, x := range s.subject {
-		subjects[x] = true
+	if withVariants {
+		h.variants = variants(s, app, draws, func(b int) []bool { return reps[b].hit }, d, c, level)
+		h.variants["loso"] = loso(s, method, p, d, c, level)
 	}
-	c := accuracy.Tally(hit, s.truth, nil)
+	cf := accuracy.Tally(hit, s.truth, nil)
 	withhold := func(e *Estimate, why string) {
 		e.Lo, e.Hi = math.NaN(), math.NaN()
 		h.Notes = append(h.Notes, why)
@@ -168,12 +190,24 @@ func headline(ctx context.Context, s *evset, f *autoFit, method string, p accura
 		}
 		h.Notes = append(h.Notes, fmt.Sprintf("only %d subjects: too few for a subject-resampled interval (at least %d needed); the figures are point estimates", len(subjects), minHeadlineSubjects))
 	default:
-		if c.FN == 0 {
+		if cf.FN == 0 {
 			withhold(&h.Sens, "the rule missed no reference IED in the sample: how often it misses cannot be estimated, so sensitivity has no interval")
 		}
-		if c.FP == 0 {
+		if cf.FP == 0 {
 			withhold(&h.Spec, "the rule made no false call in the sample: how often it does cannot be estimated, so specificity has no interval")
 		}
 	}
 	return h, nil
+}
+
+// fewSubjects is the widening factor c of Headline's interval for a
+// subjects at the two-sided level: √(a/(a−1)) · t(a−1, 1−α/2) / z(1−α/2);
+// 1 when a < 2.
+func fewSubjects(a int, level float64) float64 {
+	if a < 2 {
+		return 1
+	}
+	p := 1 - (1-level)/2
+	n := float64(a)
+	return math.Sqrt(n/(n-1)) * distuv.StudentsT{Mu: 0, Sigma: 1, Nu: n - 1}.Quantile(p) / distuv.UnitNormal.Quantile(p)
 }

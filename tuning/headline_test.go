@@ -74,3 +74,26 @@ func TestHeadlineWithholdsUnsupportedIntervals(t *testing.T) {
 		t.Errorf("no missed IED: sensitivity %+v, notes %q; want no interval and a note", h.Sens, h.Notes)
 	}
 }
+
+// TestFewSubjects checks the headline interval's widening factor against
+// scipy 1.10 (script and values: testdata/fewsubjects.py).
+func TestFewSubjects(t *testing.T) {
+	for _, c := range []struct {
+		a     int
+		level float64
+		want  float64
+	}{
+		{2, 0.95, 9.168172071676302},
+		{5, 0.95, 1.5837842021560775},
+		{8, 0.95, 1.289763320073566},
+		{30, 0.95, 1.0613426479714705},
+		{8, 0.90, 1.2313495197207152},
+	} {
+		if got := fewSubjects(c.a, c.level); math.Abs(got-c.want) > 1e-9 {
+			t.Errorf("fewSubjects(%d, %v) = %.12f, want %.12f (scipy)", c.a, c.level, got, c.want)
+		}
+	}
+	if got := fewSubjects(1, 0.95); got != 1 {
+		t.Errorf("fewSubjects(1) = %v, want 1", got)
+	}
+}

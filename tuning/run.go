@@ -102,7 +102,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 
 	method := o.Method
 	if method == "" {
-		method = MethodJoint
+		method = MethodCriterion
 	}
 	f, fw, err := fitRule(s, method, o.Policy)
 	for _, w := range fw {
@@ -142,7 +142,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 	}
 	if o.HeadlineReplicates >= 0 {
 		bar := newBar(o.HeadlineReplicates, "repeating the selection on resampled subjects")
-		res.Final.Headline, err = headline(ctx, s, f, method, o.Policy, o.HeadlineReplicates, o.Seed, o.Level, bar)
+		res.Final.Headline, err = headline(ctx, s, f, method, o.Policy, o.HeadlineReplicates, o.Seed, o.Level, bar, o.HeadlineVariants)
 		bar.Finish()
 		if err != nil {
 			return nil, err
@@ -157,7 +157,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 			_ = err // a policy no rule meets still shows the nearest rule
 			alt := &OperatingPoint{Analysis: analysisName(other), Method: other, Rule: g.name(g.cut, g.k), Policy: o.Policy,
 				Reference: o.ReferenceName, K: g.k, Cutoffs: g.cutoffs(g.cut), InSample: measure(s, g.decide(s), o.Level)}
-			alt.Headline, err = headline(ctx, s, g, other, o.Policy, o.HeadlineReplicates, o.Seed, o.Level, progress.Silent{})
+			alt.Headline, err = headline(ctx, s, g, other, o.Policy, o.HeadlineReplicates, o.Seed, o.Level, progress.Silent{}, o.HeadlineVariants)
 			if err != nil {
 				return nil, err
 			}
@@ -199,5 +199,5 @@ func analysisName(method string) string {
 	if method == MethodJoint {
 		return "automatic rule: at least k criteria met, six cutoffs and k searched jointly against the reference standard"
 	}
-	return "automatic rule: at least k criteria met, each cutoff fitted to its criterion's panel majority (Youden's J), k chosen against the reference standard"
+	return "automatic rule: at least k criteria met, each cutoff fitted to its criterion's panel majority at one shared point of their ROCs (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
 }
