@@ -10,6 +10,7 @@ import (
 
 	"github.com/quorate-eeg/quorate/sampling/candidate"
 	"github.com/quorate-eeg/quorate/sampling/synth"
+	"github.com/quorate-eeg/quorate/sampling/textbook"
 )
 
 // diagExtra computes experimental per-event values for TestFeatureDump
@@ -46,6 +47,12 @@ func TestFeatureDump(t *testing.T) {
 	var xmeets, xunclear [][6]bool
 	for _, seed := range seeds {
 		g := generated(t, seed, 10)
+		if os.Getenv("QUORATE_DIAG_GEN") == "textbook" {
+			var err error
+			if g, err = textbook.Generate(textbook.Config{Seed: seed, Duration: 240, IEDRate: 6, LookalikeRate: 10}); err != nil {
+				t.Fatal(err)
+			}
+		}
 		diagStates = g.States
 		in := inputOf(g)
 		s, _ := (&Options{}).settings()
@@ -81,7 +88,7 @@ func TestFeatureDump(t *testing.T) {
 			}
 			fmt.Fprintf(f, "%d\t%s\t%s\t%.1f\t%.1f\t%.1f\t%.2f\t%s\t%s\t%.1f\t%.2f\t%d\t%.3f\t%.0f\t%.2f\t%.2f\t%.2f\t%.3f\t%.2f\t%.2f\t%.2f\t%d", seed, ev.Kind, mt, ev.Duration, ev.Rise, ev.SNR, ev.Onset, ev.PeakElectrode, r.PeakChannel,
 				r.C1DurationMS, r.C1Sharpness, r.C1Phases, r.C2DurationLogRatio, r.C2BackgroundMS, r.C3Asymmetry, r.C4SlowWaveRatio, r.C5Disruption, r.C6DipoleGOF, r.C6DipoleX, r.C6DipoleY, r.C6DipoleZ, r.C6FieldExtent)
-			fmt.Fprintf(f, "\t%.1f\t%.1f", ev.C2DurationMs, ev.BackgroundHalfMs)
+			fmt.Fprintf(f, "\t%.1f\t%.1f\t%s\t%.3f\t%.2f\t%.1f\t%.1f", ev.C2DurationMs, ev.BackgroundHalfMs, stateAtDiag(g.States, ev.Onset), ev.Attenuation, ev.SlowWave, r.C3RiseMS, r.C3FallMS)
 			for _, v := range ex[m[i]] {
 				fmt.Fprintf(f, "\t%.4g", v)
 			}
@@ -107,4 +114,14 @@ func TestFeatureDump(t *testing.T) {
 			t.Log(line)
 		}
 	}
+}
+
+// stateAtDiag is the generator's vigilance state at t s, for the dump.
+func stateAtDiag(sp []synth.StateSpan, t float64) string {
+	for _, s := range sp {
+		if t >= s.Start && t < s.End {
+			return string(s.State)
+		}
+	}
+	return "-"
 }
