@@ -11,7 +11,10 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/export/report"
+	"github.com/quorate-eeg/quorate/panel/merge"
+	"github.com/quorate-eeg/quorate/sampling/draw"
 )
 
 // coverageRow is one demo seed of the coverage study: the chosen rule's true figures on
@@ -22,6 +25,7 @@ type coverageRow struct {
 	k                  int
 	sens, spec         float64 // truth on all candidates
 	head, in, cv, boot [2]Interval
+	drawn, panelIED    int // events drawn; of them, judged IED by the panel's majority
 }
 
 // The coverage study: the demo's whole pipeline over many seeds, the chosen rule scored
@@ -33,8 +37,12 @@ type coverageRow struct {
 //	QUORATE_COVERAGE=25 go test ./cmd/quorate -run TestCoverageStudy -v -timeout 60m
 //
 // QUORATE_COVERAGE_FROM sets the first seed (default 1); QUORATE_COVERAGE_METHOD the
-// fitting method (criterion-majority or joint-search); QUORATE_COVERAGE_DIR keeps the
-// demo folders and, when a seed's folder exists, re-runs only tune on it.
+// fitting method (criterion-majority or joint-search); QUORATE_COVERAGE_ALLOCATION and
+// QUORATE_COVERAGE_STRATA the draw's allocation and strata (as demo --allocation and
+// --strata; default study.yaml's), so that the study is run once per allocation, each
+// in its own QUORATE_COVERAGE_DIR; QUORATE_COVERAGE_DIR keeps the demo folders and, when
+// a seed's folder exists, re-runs only tune on it (QUORATE_COVERAGE_READ=1: reads its
+// operating point as it is).
 func TestCoverageStudy(t *testing.T) {
 	n, _ := strconv.Atoi(os.Getenv("QUORATE_COVERAGE"))
 	if n <= 0 {
@@ -84,7 +92,9 @@ func coverageSeed(t *testing.T, out string, seed int, sizes []string, method str
 	var buf bytes.Buffer
 	g := &globals{argv: []string{"quorate"}, stdout: &buf}
 	root := newRoot(g)
-	if _, err := os.Stat(filepath.Join(out, "study")); err == nil {
+	if _, err := os.Stat(filepath.Join(out, "study")); err == nil && os.Getenv("QUORATE_COVERAGE_READ") == "1" {
+		root.SetArgs([]string{"--version"})
+	} else if err == nil {
 		args := []string{"--quiet", "--study", filepath.Join(out, "study"), "tune"}
 		if method != "" {
 			args = append(args, "--method", method)
@@ -94,7 +104,14 @@ func coverageSeed(t *testing.T, out string, seed int, sizes []string, method str
 		if method != "" && method != "criterion-majority" {
 			t.Fatalf("QUORATE_COVERAGE_METHOD=%s needs an existing QUORATE_COVERAGE_DIR: the demo tunes with the default", method)
 		}
-		root.SetArgs(append([]string{"--quiet", "--workers", "2", "demo", "--out", out, "--seed", strconv.Itoa(seed)}, sizes...))
+		args := append([]string{"--quiet", "--workers", "2", "demo", "--out", out, "--seed", strconv.Itoa(seed)}, sizes...)
+		if a := os.Getenv("QUORATE_COVERAGE_ALLOCATION"); a != "" {
+			args = append(args, "--allocation", a)
+		}
+		if v := os.Getenv("QUORATE_COVERAGE_STRATA"); v != "" {
+			args = append(args, "--strata", v)
+		}
+		root.SetArgs(args)
 	}
 	if err := root.Execute(); err != nil && !isWarnings(err) {
 		t.Fatalf("seed %d: %v\n%s", seed, err, buf.String())
@@ -102,6 +119,7 @@ func coverageSeed(t *testing.T, out string, seed int, sizes []string, method str
 	op, cands, truth := demoOutcome(t, out)
 	ts := TruthCheck(op, cands, truth)
 	r := coverageRow{seed: seed, rule: op.Rule, k: op.K, sens: ts.Sens, spec: ts.Spec}
+	r.drawn, r.panelIED = panelIEDs(t, out)
 	if h := op.Headline; h != nil {
 		r.head = [2]Interval{h.Sensitivity, h.Specificity}
 	}
@@ -114,6 +132,35 @@ func coverageSeed(t *testing.T, out string, seed int, sizes []string, method str
 		r.boot = [2]Interval{b.Sensitivity, b.Specificity}
 	}
 	return r
+}
+
+// panelIEDs counts the events of a demo's draw and, of them, those the panel's
+// majority judged epileptiform (consensus verdict present).
+func panelIEDs(t *testing.T, out string) (drawn, ied int) {
+	t.Helper()
+	s, err := study.Open(filepath.Join(out, "study"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	rows, err := draw.ReadRows(s.Path(study.DrawDir, draw.DrawFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, r := range rows {
+		if r.Kind == draw.KindCandidate {
+			drawn++
+		}
+	}
+	cons, err := merge.ReadConsensus(s.Path(study.ConsensusDir, merge.ConsensusFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range cons {
+		if e.Verdict == "present" {
+			ied++
+		}
+	}
+	return drawn, ied
 }
 
 func holds(v Interval, truth float64) bool {
@@ -141,9 +188,9 @@ func coverageTable(rows []coverageRow) string {
 		}
 		return fmt.Sprintf("%.2f (%.2f–%.2f) %s", float64(v.Value), float64(v.Lo), float64(v.Hi), c)
 	}
-	fmt.Fprintf(&b, "| seed | k | true sens | headline sens | true spec | headline spec | in-sample sens | cv sens | bootstrap sens |\n|---|---|---|---|---|---|---|---|---|\n")
+	fmt.Fprintf(&b, "| seed | panel IEDs / drawn | k | true sens | headline sens | true spec | headline spec | in-sample sens | cv sens | bootstrap sens |\n|---|---|---|---|---|---|---|---|---|---|\n")
 	for _, r := range rows {
-		fmt.Fprintf(&b, "| %d | %d | %.2f | %s | %.3f | %s | %s | %s | %s |\n", r.seed, r.k, r.sens, mark(r.head[0], r.sens), r.spec, mark(r.head[1], r.spec),
+		fmt.Fprintf(&b, "| %d | %d / %d | %d | %.2f | %s | %.3f | %s | %s | %s | %s |\n", r.seed, r.panelIED, r.drawn, r.k, r.sens, mark(r.head[0], r.sens), r.spec, mark(r.head[1], r.spec),
 			mark(r.in[0], r.sens), mark(r.cv[0], r.sens), mark(r.boot[0], r.sens))
 	}
 	fmt.Fprintf(&b, "\n| interval | figure | holds truth | mean bias | median width |\n|---|---|---|---|---|\n")
@@ -179,11 +226,13 @@ func coverageTable(rows []coverageRow) string {
 			fmt.Fprintf(&b, "| %s | %s | %d / %d | %+.3f | %.2f |\n", c.name, name, held, n, bias/float64(max(n, 1)), med)
 		}
 	}
-	var ms float64
+	var ms, pi float64
 	for _, r := range rows {
 		ms += r.sens
+		pi += float64(r.panelIED)
 	}
 	fmt.Fprintf(&b, "\nmean true sensitivity of the chosen rule: %.3f over %d seeds\n", ms/float64(max(len(rows), 1)), len(rows))
+	fmt.Fprintf(&b, "mean panel IEDs drawn (consensus present): %.1f over %d seeds\n", pi/float64(max(len(rows), 1)), len(rows))
 	for _, r := range rows {
 		fmt.Fprintf(&b, "seed %d: %s\n", r.seed, r.rule)
 	}

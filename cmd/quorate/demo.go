@@ -39,6 +39,8 @@ type demoFlags struct {
 	n          int
 	seed       uint64
 	generator  string
+	allocation string // draw allocation; "" takes study.yaml's
+	strata     string // draw strata; "" takes study.yaml's
 }
 
 // demoMarker marks a folder made by the demo, which a later demo may replace.
@@ -68,6 +70,8 @@ the report is. Every patient, rater and centre in it is invented.`,
 	fl.Float64Var(&f.minutes, "minutes", 10, "length of each recording, minutes")
 	fl.IntVar(&f.n, "n", 200, "events drawn for the panel")
 	fl.Uint64Var(&f.seed, "seed", 1, "seed of everything the demo makes")
+	fl.StringVar(&f.allocation, "allocation", "", "draw allocation, as draw --allocation (default: study.yaml draw.allocation)")
+	fl.StringVar(&f.strata, "strata", "", "draw strata, as draw --strata (default: study.yaml draw.strata)")
 	fl.StringVar(&f.generator, "generator", "first", "which synthetic generator writes the archive: first, second (independent waveform, background and head models) or both (half each)")
 	return cmd
 }
@@ -130,6 +134,12 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	df := &drawFlags{n: min(f.n, len(cands)), strata: c.Draw.Strata, allocation: c.Draw.Allocation, sdColumn: "score",
 		min: c.Draw.MinPerStratum, capN: c.Draw.SubjectCap, controls: c.Draw.Controls, epochS: c.Draw.ControlEpochS,
 		distS: c.Draw.ControlDistS, seed: f.seed}
+	if f.allocation != "" {
+		df.allocation = f.allocation
+	}
+	if f.strata != "" {
+		df.strata = f.strata
+	}
 	if err := runDraw(ctx, g, s, df); err != nil && !isWarnings(err) {
 		return err
 	}

@@ -37,10 +37,10 @@ writes draw/draw.parquet (event, stratum, inclusion probability, design weight, 
 order), draw/design.json and draw/strata.csv. Every later estimate is weighted by these
 probabilities. Defaults come from study.yaml (draw:); flags override them.
 
-Allocation: equal, proportional, neyman (with --sd-column, a pilot standard deviation
-column), accuracy (oversamples strata likely to hold IEDs, judged by the share of candidates
-with auto_count ≥ 4, for precise sensitivity and specificity; every stratum keeps at least 2),
-or table:FILE (a CSV with columns stratum,n). An existing draw is never replaced
+Allocation: accuracy (study.yaml's default, on score octiles: oversamples strata likely to
+hold IEDs, judged by the share of candidates with auto_count ≥ 4, for precise sensitivity and
+specificity; every stratum keeps at least 2), equal, proportional, neyman (with --sd-column, a
+pilot standard deviation column), or table:FILE (a CSV with columns stratum,n). An existing draw is never replaced
 silently: --top-up N adds N events as a new phase; with --adaptive the new phase is allocated
 from the panel's merged returns (consensus/consensus.parquet: per stratum, the share judged
 epileptiform and the share the raters split on), with design weights that stay unbiased;
@@ -65,7 +65,7 @@ epileptiform and the share the raters split on), with design weights that stay u
 	fl := cmd.Flags()
 	fl.IntVar(&f.n, "n", 0, "events to draw (default: study.yaml draw.n)")
 	fl.StringVar(&f.strata, "strata", "", "stratifying columns, e.g. score:q5,region or score:edges=0,2,4")
-	fl.StringVar(&f.allocation, "allocation", "", "equal | proportional | neyman | accuracy | table:FILE")
+	fl.StringVar(&f.allocation, "allocation", "", "accuracy | equal | proportional | neyman | table:FILE (default: study.yaml draw.allocation)")
 	fl.StringVar(&f.sdColumn, "sd-column", "score", "numeric column whose within-stratum SD pilots a Neyman allocation")
 	fl.IntVar(&f.min, "min-per-stratum", 0, "fewest events per stratum")
 	fl.IntVar(&f.capN, "subject-cap", 0, "most events per subject and stratum (0: no cap)")

@@ -38,7 +38,10 @@ const (
 // prior prevalence of IEDs in stratum h (priorOf). It oversamples strata
 // likely to hold IEDs while strata of likely negatives keep a share set by
 // specificity; with a floor of accuracyFloor units every stratum keeps a
-// known π > 0. Strata of size 0 get weight 0.
+// known π > 0: n_h ≥ min(max(Min, 2), N'_h), so π_h = n_h/N'_h ≥ 2/N'_h and
+// every design weight is at most N'_h/2 (the floor is Allocate's; the π
+// estimator is unbiased only when every π_k > 0, Särndal, Swensson &
+// Wretman 1992, ch. 2, chapter from memory). Strata of size 0 get weight 0.
 func AccuracyWeights(size []int, prior []float64) ([]float64, error) {
 	if len(size) != len(prior) {
 		return nil, &allocationError{Msg: fmt.Sprintf("%d priors for %d strata", len(prior), len(size))}

@@ -50,8 +50,8 @@ criteria_cutoffs:
 
 draw:
   n: 300                      # events for the panel
-  strata: 'score:q4,lobe'     # columns; numeric ones binned by quantiles (q4) or edges
-  allocation: equal           # equal | proportional | neyman | accuracy | table:FILE (equal oversamples rare strata; weights correct for it)
+  strata: 'score:q8'          # columns; numeric ones binned by quantiles (q8) or edges, e.g. 'score:q4,lobe'
+  allocation: accuracy        # accuracy | equal | proportional | neyman | table:FILE (accuracy oversamples score strata likely to hold IEDs; weights correct for it)
   min_per_stratum: 2
   subject_cap: 25             # at most this many events per subject and stratum
   controls: 30                # background epochs away from any candidate
