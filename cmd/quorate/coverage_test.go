@@ -13,6 +13,7 @@ import (
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/export/report"
+	"github.com/quorate-eeg/quorate/panel/consensus"
 	"github.com/quorate-eeg/quorate/panel/merge"
 	"github.com/quorate-eeg/quorate/sampling/draw"
 )
@@ -135,7 +136,7 @@ func coverageSeed(t *testing.T, out string, seed int, sizes []string, method str
 }
 
 // panelIEDs counts the events of a demo's draw and, of them, those the panel's
-// majority judged epileptiform (consensus verdict present).
+// majority judged epileptiform (consensus verdict epileptiform).
 func panelIEDs(t *testing.T, out string) (drawn, ied int) {
 	t.Helper()
 	s, err := study.Open(filepath.Join(out, "study"))
@@ -156,7 +157,7 @@ func panelIEDs(t *testing.T, out string) (drawn, ied int) {
 		t.Fatal(err)
 	}
 	for _, e := range cons {
-		if e.Verdict == "present" {
+		if e.Verdict == consensus.VerdictEpileptiform {
 			ied++
 		}
 	}
@@ -232,7 +233,7 @@ func coverageTable(rows []coverageRow) string {
 		pi += float64(r.panelIED)
 	}
 	fmt.Fprintf(&b, "\nmean true sensitivity of the chosen rule: %.3f over %d seeds\n", ms/float64(max(len(rows), 1)), len(rows))
-	fmt.Fprintf(&b, "mean panel IEDs drawn (consensus present): %.1f over %d seeds\n", pi/float64(max(len(rows), 1)), len(rows))
+	fmt.Fprintf(&b, "mean panel IEDs drawn (consensus epileptiform): %.1f over %d seeds\n", pi/float64(max(len(rows), 1)), len(rows))
 	for _, r := range rows {
 		fmt.Fprintf(&b, "seed %d: %s\n", r.seed, r.rule)
 	}
