@@ -154,7 +154,7 @@ func runDraw(ctx context.Context, g *globals, s *study.Study, f *drawFlags) erro
 		return err
 	}
 	for _, w := range res.Warnings {
-		g.log.Warn("draw", "stratum", w.Stratum, "warning", w.Msg)
+		g.warn("draw", "%s", w)
 	}
 	seed := f.seed
 	inputs := append(s.Hash(s.Path(study.CandidatesDir)), s.Hash(s.Path(study.IndexDir, archive.IndexFile))...)

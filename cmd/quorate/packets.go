@@ -126,7 +126,7 @@ func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags
 		return err
 	}
 	for _, w := range warns {
-		g.log.Warn("packets", "warning", w)
+		g.warn("packets", "%s", w)
 	}
 	// The page opens with study.yaml's montage and filters; raters may change them.
 	filters := packet.Filters{LowHz: c.Signal.Bandpass[0], HighHz: c.Signal.Bandpass[1], NotchHz: c.Signal.NotchHz}
