@@ -33,3 +33,21 @@ func FuzzReadAllocationTable(f *testing.F) {
 		}
 	})
 }
+
+// An allocation table saved with semicolons (a spreadsheet's "CSV" in many locales)
+// is refused with one error that names the separator, not only "want the header".
+func TestAllocationTableSemicolonHint(t *testing.T) {
+	for _, body := range []string{"stratum;n\na;1\n", "stratum\tn\na\t1\n"} {
+		p := filepath.Join(t.TempDir(), "alloc.csv")
+		os.WriteFile(p, []byte(body), 0o644)
+		_, err := readAllocationTable(p)
+		if err == nil || !strings.Contains(err.Error(), p) || !strings.Contains(err.Error(), "semicolons or tabs") || !strings.Contains(err.Error(), "comma-separated") {
+			t.Errorf("%q: %v, want an error naming the file and the separator", body, err)
+		}
+	}
+	p := filepath.Join(t.TempDir(), "alloc.csv")
+	os.WriteFile(p, []byte("stratum,n\nscore=q1,3\n"), 0o644)
+	if tbl, err := readAllocationTable(p); err != nil || tbl["score=q1"] != 3 {
+		t.Errorf("comma table: %v, %v", tbl, err)
+	}
+}

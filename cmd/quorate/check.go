@@ -14,6 +14,7 @@ import (
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/export/report"
+	"github.com/quorate-eeg/quorate/internal/atomicfile"
 	"github.com/quorate-eeg/quorate/internal/parquetfile"
 	"github.com/quorate-eeg/quorate/panel/consensus"
 	"github.com/quorate-eeg/quorate/panel/merge"
@@ -24,10 +25,10 @@ import (
 )
 
 // finding is one thing check found: damaged (a file that is not what it should be),
-// stale (outputs of another generation than their inputs) or exposed (a private file
-// others may read).
+// stale (outputs of another generation than their inputs), exposed (a private file
+// others may read) or leftover (a temporary file of a command that was killed).
 type finding struct {
-	Kind   string // damaged, stale, exposed
+	Kind   string // damaged, stale, exposed, leftover
 	What   string // the file or stage
 	Detail string
 }
@@ -46,10 +47,12 @@ artefact and changes nothing:
     operating point, agreement, generations) parse;
   - each stage's generation: outputs built from inputs that have changed since;
   - the study secret and the archive paths readable by the owner only, and no archive
-    path left in index/recordings.parquet.
+    path left in index/recordings.parquet;
+  - temporary files (.NAME.tmp-N) of a command that was killed before it finished
+    (kill -9, a power cut); the next writing command removes them.
 
-Exit status 1 when anything is damaged or exposed; stale stages are listed and count as
-warnings (exit 3 with --strict).`,
+Exit status 1 when anything is damaged or exposed; stale stages and leftover temporary
+files are listed and count as warnings (exit 3 with --strict).`,
 		Example: `  quorate --study /studies/ied-2027 check`,
 		Args:    cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -61,7 +64,7 @@ warnings (exit 3 with --strict).`,
 			stale := 0
 			for _, f := range fs {
 				fmt.Fprintf(g.stdout, "%-8s %s: %s\n", f.Kind, f.What, f.Detail)
-				if f.Kind == "stale" {
+				if f.Kind == "stale" || f.Kind == "leftover" {
 					stale++
 				}
 			}
@@ -120,6 +123,7 @@ func checkStudy(s *study.Study) []finding {
 			}
 		}
 	}
+	out = append(out, checkLeftovers(s, rel)...)
 	for _, p := range []string{study.SecretFile, study.PathsFile} {
 		st, err := os.Stat(s.Path(p))
 		switch {
@@ -226,5 +230,24 @@ func checkTables(s *study.Study, rel func(string) string) []finding {
 	check(s.Path(study.ConsensusDir, merge.RatingsFile), parquetfile.Check[consensus.Rating])
 	check(s.Path(study.ConsensusDir, merge.ConsensusFile), parquetfile.Check[consensus.Event])
 	check(s.Path(study.TuningDir, report.SweepFile), parquetfile.Check[report.SweepRow])
+	return out
+}
+
+// checkLeftovers lists the temporary files and folders of writers that were killed
+// before their rename (atomicfile.Leftovers). check takes no lock, so a writer at work
+// on the study shows its own temporary files here too.
+func checkLeftovers(s *study.Study, rel func(string) string) []finding {
+	ls, err := atomicfile.Leftovers(s.Dir)
+	if err != nil {
+		return []finding{{"damaged", rel(s.Dir), err.Error()}}
+	}
+	var out []finding
+	for _, l := range ls {
+		detail := "temporary file of a command stopped before it finished (or at work now); the next writing command removes it"
+		if l.Restores != "" {
+			detail = fmt.Sprintf("%s as it was before a command stopped while replacing it; the next writing command puts it back", rel(l.Restores))
+		}
+		out = append(out, finding{"leftover", rel(l.Path), detail})
+	}
 	return out
 }

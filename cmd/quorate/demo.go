@@ -97,6 +97,9 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 	if err != nil {
 		return err
 	}
+	if err := ctx.Err(); err != nil {
+		return err
+	}
 
 	step("creating the study")
 	studyDir := filepath.Join(f.out, "study")
@@ -144,7 +147,7 @@ func runDemo(ctx context.Context, g *globals, f *demoFlags) error {
 		return err
 	}
 	step("packets")
-	if err := runPackets(g, s, &packetsFlags{raters: strings.Join(names, ","), seed: f.seed,
+	if err := runPackets(ctx, g, s, &packetsFlags{raters: strings.Join(names, ","), seed: f.seed,
 		duplicate: c.Panel.DuplicateShare, window: c.Panel.WindowS}); err != nil && !isWarnings(err) {
 		return err
 	}

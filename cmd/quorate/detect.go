@@ -99,7 +99,7 @@ func runDetect(ctx context.Context, g *globals, s *study.Study, shard, shards in
 	sort.Strings(ids)
 	for _, id := range ids {
 		for _, w := range res.Warnings[id] {
-			g.log.Warn("detect", "recording", id, "warning", w)
+			g.warn("detect", "recording %s: %s", id, w)
 			nWarn++
 		}
 	}

@@ -154,7 +154,7 @@ func runDraw(ctx context.Context, g *globals, s *study.Study, f *drawFlags) erro
 		return err
 	}
 	for _, w := range res.Warnings {
-		g.log.Warn("draw", "stratum", w.Stratum, "warning", w.Msg)
+		g.warn("draw", "%s", w)
 	}
 	seed := f.seed
 	inputs := append(s.Hash(s.Path(study.CandidatesDir)), s.Hash(s.Path(study.IndexDir, archive.IndexFile))...)
@@ -240,6 +240,11 @@ func readAllocationTable(path string) (map[string]int, error) {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
 	if len(rows) == 0 || len(rows[0]) != 2 || rows[0][0] != "stratum" || rows[0][1] != "n" {
+		// Spreadsheets in many locales save "CSV" with semicolons: say so
+		// rather than leave a one-column header unexplained.
+		if len(rows) > 0 && len(rows[0]) == 1 && strings.ContainsAny(rows[0][0], ";\t") {
+			return nil, fmt.Errorf("%s: row 1: the table is separated by semicolons or tabs; save it as comma-separated CSV with the header stratum,n", path)
+		}
 		return nil, fmt.Errorf("%s: row 1: want the header stratum,n", path)
 	}
 	t := map[string]int{}

@@ -108,11 +108,11 @@ func runImport(ctx context.Context, g *globals, s *study.Study, f *importFlags, 
 		return err
 	}
 	for _, n := range res.Notes {
-		g.log.Warn("import-events", "note", n)
+		g.warn("import-events", "%s", n)
 	}
 	for _, r := range res.Rejected {
 		if r.Field == "recording" {
-			g.log.Warn("import-events", "hint", recordingHint)
+			g.warn("import-events", "%s", recordingHint)
 			break
 		}
 	}
@@ -124,7 +124,7 @@ func runImport(ctx context.Context, g *globals, s *study.Study, f *importFlags, 
 	fmt.Fprintf(g.stdout, "Imported %d of %d events from %s (%d merged as duplicates, %d rejected: see %s).\n",
 		res.Kept, res.Read, res.Source, res.Merged, len(res.Rejected), res.Rejects)
 	if res.Kept == 0 {
-		g.log.Warn("import-events", "warning", "no event was kept")
+		g.warn("import-events", "no event was kept")
 		return g.finish(1 + len(res.Rejected))
 	}
 	return g.finish(len(res.Rejected) + len(res.Notes))

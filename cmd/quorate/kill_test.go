@@ -226,12 +226,24 @@ func tuningGeneration(t *testing.T, st string) (string, map[string]string) {
 }
 
 // checkWhole runs quorate check and fails on anything damaged or exposed; stale
-// stages are returned (check exits 0 for them).
+// stages are returned (check exits 0 for them). Every .tmp-* leftover the kill left
+// must be listed as one (a file inside a leftover folder by that folder).
 func checkWhole(t *testing.T, bin, st string) string {
 	t.Helper()
+	left := leftovers(st)
 	code, out := runBin(t, bin, "--study", st, "check")
 	if code != 0 || strings.Contains(out, "damaged") || strings.Contains(out, "exposed") {
 		t.Fatalf("check after kill: exit %d\n%s", code, out)
+	}
+	for _, l := range left {
+		listed := false
+		for p := l; !listed && len(p) > len(st); p = filepath.Dir(p) {
+			rel, _ := filepath.Rel(st, p)
+			listed = strings.Contains(out, "leftover "+filepath.ToSlash(rel)+": ")
+		}
+		if !listed {
+			t.Fatalf("check after kill does not list the leftover %s:\n%s", l, out)
+		}
 	}
 	return out
 }

@@ -94,7 +94,7 @@ func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, s
 		return err
 	}
 	for _, e := range res.Superseded {
-		g.log.Info("superseded", "packet", e.Packet, "rater", e.Rater, "file", e.Stored)
+		g.note("merge", "return %s of %s (packet %s) no longer counts for any item: later returns replaced its answers", e.Stored, e.Rater, e.Packet)
 	}
 	notes := map[string]any{"accepted": len(res.Accepted), "already_stored": len(res.Duplicates), "refused": len(res.Rejected), "events": res.Events}
 	var counting []string

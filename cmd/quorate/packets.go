@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"fmt"
 	"strconv"
 	"strings"
@@ -60,7 +61,7 @@ keyed with the study secret so that returns can be matched and tampering detecte
 			if !set("window") {
 				f.window = c.Panel.WindowS
 			}
-			return runPackets(g, s, f)
+			return runPackets(cmd.Context(), g, s, f)
 		},
 	}
 	fl := cmd.Flags()
@@ -99,7 +100,7 @@ func parseRaters(s string) ([]string, error) {
 	return out, nil
 }
 
-func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
+func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags) error {
 	raters, err := parseRaters(f.raters)
 	if err != nil {
 		return usageError{err}
@@ -119,17 +120,17 @@ func runPackets(g *globals, s *study.Study, f *packetsFlags) error {
 		return err
 	}
 	c := s.Config
-	items, warns, err := excerpt.Cut(excerpt.Options{Rows: rows, Recordings: recs, Roots: c.Archive.Roots, WindowS: f.window,
+	items, warns, err := excerpt.Cut(ctx, excerpt.Options{Rows: rows, Recordings: recs, Roots: c.Archive.Roots, WindowS: f.window,
 		Bandpass: c.Signal.Bandpass, NotchHz: c.Signal.NotchHz, Progress: g.progress})
 	if err != nil {
 		return err
 	}
 	for _, w := range warns {
-		g.log.Warn("packets", "warning", w)
+		g.warn("packets", "%s", w)
 	}
 	// The page opens with study.yaml's montage and filters; raters may change them.
 	filters := packet.Filters{LowHz: c.Signal.Bandpass[0], HighHz: c.Signal.Bandpass[1], NotchHz: c.Signal.NotchHz}
-	res, err := packet.Build(items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
+	res, err := packet.Build(ctx, items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
 		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir),
 		Montages: packet.FirstMontage(packet.DefaultMontages(items[0].Electrodes), c.Signal.Montage), Filters: &filters})
 	if err != nil {

@@ -97,7 +97,7 @@ panel, merge the ratings into a gold standard, tune, and export.
 	pf.IntVar(&g.workers, "workers", runtime.NumCPU(), "parallel workers")
 	pf.BoolVar(&g.quiet, "quiet", false, "no progress bars, warnings and errors only")
 	pf.BoolVar(&g.strict, "strict", false, "exit with code 3 when a command finishes with warnings")
-	pf.StringVar(&g.logFormat, "log-format", "text", "log format: text or json")
+	pf.StringVar(&g.logFormat, "log-format", "text", "warnings and notes on stderr: text (plain \"warning: …\" lines) or json (one record each)")
 	pf.BoolVar(&g.force, "force", false, "go on although an earlier stage's outputs are of another generation than its inputs")
 	root.SetVersionTemplate(versionLine() + "\n")
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageError{err} })

@@ -66,8 +66,8 @@ func guard(g *globals, c *cobra.Command) {
 		}
 		if sh, _ := cmd.Flags().GetString("shard"); sh == "" {
 			// Under the lock no other writer is at work: what a killed one left goes.
-			if gone, _ := atomicfile.RemoveLeftovers(s.Dir); len(gone) > 0 && g.log != nil {
-				g.log.Info("removed temporary files of an interrupted run", "files", len(gone))
+			if gone, _ := atomicfile.RemoveLeftovers(s.Dir); len(gone) > 0 {
+				g.note(c.Name(), "removed %d temporary file(s) of an interrupted run", len(gone))
 			}
 		}
 		if checking[c.Name()] && !g.force {

@@ -21,6 +21,7 @@ var (
 	demoOnce sync.Once
 	demoDir  string
 	demoErr  error
+	demoLog  bytes.Buffer // the demo's stderr
 )
 
 // demoStudy returns a fresh copy of one small demo study (made once per test binary),
@@ -38,7 +39,7 @@ func demoStudy(t *testing.T) string {
 		}
 		demoDir = filepath.Join(dir, "demo")
 		var buf bytes.Buffer
-		root := newRoot(&globals{argv: []string{"quorate", "demo"}, stdout: &buf})
+		root := newRoot(&globals{argv: []string{"quorate", "demo"}, stdout: &buf, stderr: &demoLog})
 		root.SetArgs([]string{"--quiet", "--workers", "2", "demo", "--out", demoDir, "--recordings", "3", "--minutes", "3",
 			"--n", "60", "--raters", "3", "--seed", "5"})
 		demoErr = root.Execute()
@@ -262,6 +263,10 @@ func TestCheck(t *testing.T) {
 	if _, err := run(t, "--study", st, "--force", "draw", "--replace", "--n", "40", "--seed", "9"); err != nil {
 		t.Fatal(err)
 	}
+	// What a kill -9 leaves: a writer's temporary file, and a folder moved aside
+	// just before its replacement was renamed into place.
+	os.WriteFile(filepath.Join(st, study.ConsensusDir, ".consensus.parquet.tmp-4242"), c[:10], 0o644)
+	os.Rename(filepath.Join(st, study.TuningDir), filepath.Join(st, ".tuning.aside.tmp-77"))
 	out, err := run(t, "--study", st, "check")
 	if err == nil {
 		t.Error("check passed a damaged study")
@@ -271,6 +276,8 @@ func TestCheck(t *testing.T) {
 		"damaged  consensus/consensus.parquet: ",
 		"exposed  .quorate/secret: mode -rw-r--r--",
 		"stale    packets: ",
+		"leftover consensus/.consensus.parquet.tmp-4242: temporary file of a command stopped",
+		"leftover .tuning.aside.tmp-77: tuning as it was before a command stopped",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("check output lacks %q:\n%s", want, out)

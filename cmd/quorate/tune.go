@@ -160,7 +160,7 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 		return err
 	}
 	for _, w := range res.Warnings {
-		g.log.Warn("tune", "warning", w)
+		g.warn("tune", "%s", w)
 	}
 	seed := f.seed
 	if err := s.Record(study.Entry{Version: Version, Command: "tune", Argv: g.argv, Seed: &seed, Inputs: inputs,

@@ -113,6 +113,55 @@ func isLeftover(name string) bool {
 // the new one into place: ".NAME" + asideTag + "DIGITS".
 const asideTag = ".aside.tmp-"
 
+// Leftover is a temporary file or folder that a writer killed before its rename left
+// under a root.
+type Leftover struct {
+	Path string
+	// Restores is the folder this one is the earlier content of, when WriteDir had
+	// moved that folder aside and was killed before the new one took its place:
+	// RemoveLeftovers renames it back. Empty for a leftover RemoveLeftovers removes.
+	Restores string
+}
+
+// Leftovers lists, changing nothing, what RemoveLeftovers would remove or put back
+// under root, in walk order. A writer at work under root has temporary files too: list
+// them under the study's lock to be sure that every one was left by a killed writer.
+func Leftovers(root string) ([]Leftover, error) {
+	var out []Leftover
+	err := walkLeftovers(root, func(l Leftover, _ bool) error {
+		out = append(out, l)
+		return nil
+	})
+	return out, err
+}
+
+// walkLeftovers calls fn for each leftover under root (isDir tells a folder); the
+// walk does not enter a leftover folder.
+func walkLeftovers(root string, fn func(l Leftover, isDir bool) error) error {
+	return filepath.WalkDir(root, func(p string, d os.DirEntry, err error) error {
+		if err != nil {
+			return nil // an unreadable folder holds nothing this package wrote
+		}
+		if p == root || !isLeftover(d.Name()) {
+			return nil
+		}
+		l := Leftover{Path: p}
+		if i := strings.LastIndex(d.Name(), asideTag); d.IsDir() && i > 1 {
+			orig := filepath.Join(filepath.Dir(p), d.Name()[1:i])
+			if _, err := os.Lstat(orig); errors.Is(err, fs.ErrNotExist) {
+				l.Restores = orig
+			}
+		}
+		if err := fn(l, d.IsDir()); err != nil {
+			return err
+		}
+		if d.IsDir() {
+			return filepath.SkipDir
+		}
+		return nil
+	})
+}
+
 // RemoveLeftovers removes, under root, the temporary files and folders that a writer
 // killed before its rename left behind, and returns their paths. A folder that
 // WriteDir had moved aside when it was killed, before the new folder took its place,
@@ -121,28 +170,14 @@ const asideTag = ".aside.tmp-"
 // lock).
 func RemoveLeftovers(root string) ([]string, error) {
 	var gone []string
-	err := filepath.WalkDir(root, func(p string, d os.DirEntry, err error) error {
-		if err != nil {
-			return nil // an unreadable folder holds nothing this package wrote
+	err := walkLeftovers(root, func(l Leftover, _ bool) error {
+		if l.Restores != "" {
+			return os.Rename(l.Path, l.Restores)
 		}
-		if i := strings.LastIndex(d.Name(), asideTag); d.IsDir() && i > 1 && isLeftover(d.Name()) {
-			orig := filepath.Join(filepath.Dir(p), d.Name()[1:i])
-			if _, err := os.Lstat(orig); errors.Is(err, fs.ErrNotExist) {
-				if err := os.Rename(p, orig); err != nil {
-					return err
-				}
-				return filepath.SkipDir
-			}
+		if err := os.RemoveAll(l.Path); err != nil {
+			return err
 		}
-		if p != root && isLeftover(d.Name()) {
-			if err := os.RemoveAll(p); err != nil {
-				return err
-			}
-			gone = append(gone, p)
-			if d.IsDir() {
-				return filepath.SkipDir
-			}
-		}
+		gone = append(gone, l.Path)
 		return nil
 	})
 	return gone, err

@@ -150,3 +150,30 @@ func TestRemoveLeftoversRestoresAside(t *testing.T) {
 		t.Errorf("the folder in place was touched: %v", err)
 	}
 }
+
+// Leftovers lists what RemoveLeftovers would remove or put back, and changes nothing.
+func TestLeftoversListsOnly(t *testing.T) {
+	root := t.TempDir()
+	file := filepath.Join(root, "sub", ".d.parquet.tmp-9")
+	aside := filepath.Join(root, ".tuning"+asideTag+"123")
+	os.MkdirAll(filepath.Dir(file), 0o755)
+	os.WriteFile(file, []byte("x"), 0o644)
+	os.WriteFile(filepath.Join(root, "a.json"), []byte("x"), 0o644)
+	os.MkdirAll(filepath.Join(aside, "inner"), 0o755)
+	got, err := Leftovers(root)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := []Leftover{{Path: aside, Restores: filepath.Join(root, "tuning")}, {Path: file}}
+	if len(got) != len(want) || got[0] != want[0] || got[1] != want[1] {
+		t.Fatalf("Leftovers = %+v, want %+v", got, want)
+	}
+	for _, p := range []string{file, aside, filepath.Join(aside, "inner")} {
+		if _, err := os.Lstat(p); err != nil {
+			t.Errorf("%s changed by a listing: %v", p, err)
+		}
+	}
+	if _, err := os.Lstat(filepath.Join(root, "tuning")); err == nil {
+		t.Error("a listing put the aside folder back")
+	}
+}

@@ -1,6 +1,7 @@
 package excerpt
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -56,8 +57,12 @@ const DefaultMaxRate = 512
 
 // Cut returns one item per drawn row, in draw order, and warnings. The electrode set is
 // the standard electrodes present in every recording of the draw, so that every item of
-// a packet can share one montage.
-func Cut(o Options) ([]packet.Item, []string, error) {
+// a packet can share one montage. Cut checks ctx before each recording and
+// each event and returns ctx's error as soon as it is done.
+func Cut(ctx context.Context, o Options) ([]packet.Item, []string, error) {
+	if err := ctx.Err(); err != nil {
+		return nil, nil, err
+	}
 	if o.WindowS <= 0 {
 		o.WindowS = 10
 	}
@@ -123,6 +128,9 @@ func Cut(o Options) ([]packet.Item, []string, error) {
 	defer bar.Finish()
 	items := make([]packet.Item, len(o.Rows))
 	for _, id := range ids {
+		if err := ctx.Err(); err != nil {
+			return nil, warnings, err
+		}
 		rec := recs[id]
 		rd, err := edf.Open(pathOf(o.Roots, rec))
 		if err != nil {
@@ -134,6 +142,10 @@ func Cut(o Options) ([]packet.Item, []string, error) {
 			return nil, warnings, fmt.Errorf("%s: %w", pathOf(o.Roots, rec), err)
 		}
 		for _, i := range byRec[id] {
+			if err := ctx.Err(); err != nil {
+				rd.Close()
+				return nil, warnings, err
+			}
 			r := o.Rows[i]
 			it, atPeak, err := c.item(r.OnsetS)
 			if err != nil {

@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/quorate-eeg/quorate/internal/progress"
 	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/draw"
 	"github.com/quorate-eeg/quorate/sampling/headmodel"
@@ -36,7 +37,7 @@ func TestCutWindowsAndMaps(t *testing.T) {
 		{EventID: "ev-a", RecordingID: recs[0].RecordingID, SubjectKey: recs[0].SubjectKey, OnsetS: 12.5, Kind: "candidate"},
 		{EventID: "ev-b", RecordingID: recs[1].RecordingID, SubjectKey: recs[1].SubjectKey, OnsetS: 2, Kind: "control"}, // near the start: padded
 	}
-	items, warns, err := Cut(Options{Rows: rows, Recordings: recs, Roots: []string{arch}, Bandpass: [2]float64{0.5, 70}, NotchHz: 50})
+	items, warns, err := Cut(context.Background(), Options{Rows: rows, Recordings: recs, Roots: []string{arch}, Bandpass: [2]float64{0.5, 70}, NotchHz: 50})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -81,7 +82,7 @@ func TestCutWindowsAndMaps(t *testing.T) {
 func TestCutDecimatesAboveMaxRate(t *testing.T) {
 	arch, recs, _ := fixture(t)
 	rows := []draw.Row{{EventID: "ev-a", RecordingID: recs[0].RecordingID, OnsetS: 12.5}}
-	items, _, err := Cut(Options{Rows: rows, Recordings: recs, Roots: []string{arch}, MaxRate: 128})
+	items, _, err := Cut(context.Background(), Options{Rows: rows, Recordings: recs, Roots: []string{arch}, MaxRate: 128})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -95,9 +96,53 @@ func TestCutNamesMissingRecordings(t *testing.T) {
 	arch, recs, ws := fixture(t)
 	os.Remove(ws[0].Path)
 	rows := []draw.Row{{EventID: "ev-a", RecordingID: recs[0].RecordingID, OnsetS: 5}, {EventID: "ev-b", RecordingID: recs[1].RecordingID, OnsetS: 5}}
-	_, _, err := Cut(Options{Rows: rows, Recordings: recs, Roots: []string{arch}})
+	_, _, err := Cut(context.Background(), Options{Rows: rows, Recordings: recs, Roots: []string{arch}})
 	var me *MissingError
 	if !errors.As(err, &me) || len(me.Paths) != 1 || filepath.Base(me.Paths[0]) != filepath.Base(ws[0].Path) {
 		t.Fatalf("err = %v, want a MissingError naming %s", err, ws[0].Path)
 	}
 }
+
+// cancelBar cancels its context when the first item is done.
+type cancelBar struct{ cancel context.CancelFunc }
+
+func (b cancelBar) Add(int) { b.cancel() }
+func (b cancelBar) Finish() {}
+
+// Cut returns the context's error, before it reads anything when the context
+// is already cancelled, and between events when it is cancelled while
+// cutting: it does not go on to cut the rest.
+func TestCutHonoursCancel(t *testing.T) {
+	arch, recs, _ := fixture(t)
+	rows := []draw.Row{
+		{EventID: "ev-a", RecordingID: recs[0].RecordingID, OnsetS: 5},
+		{EventID: "ev-b", RecordingID: recs[0].RecordingID, OnsetS: 12},
+		{EventID: "ev-c", RecordingID: recs[1].RecordingID, OnsetS: 5},
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	if _, _, err := Cut(ctx, Options{Rows: rows, Recordings: recs, Roots: []string{arch}}); !errors.Is(err, context.Canceled) {
+		t.Fatalf("cancelled before: %v, want context.Canceled", err)
+	}
+	ctx, cancel = context.WithCancel(context.Background())
+	defer cancel()
+	added := 0
+	o := Options{Rows: rows, Recordings: recs, Roots: []string{arch}, Progress: func(total int, desc string) progress.Bar {
+		return countBar{cancelBar{cancel}, &added}
+	}}
+	items, _, err := Cut(ctx, o)
+	if !errors.Is(err, context.Canceled) || items != nil {
+		t.Fatalf("cancelled while cutting: %d items, %v; want context.Canceled", len(items), err)
+	}
+	if added != 1 {
+		t.Errorf("%d events cut after the cancel, want 1 (the one in progress)", added)
+	}
+}
+
+// countBar counts Add calls and passes them on.
+type countBar struct {
+	cancelBar
+	n *int
+}
+
+func (b countBar) Add(k int) { *b.n += k; b.cancelBar.Add(k) }

@@ -1,7 +1,9 @@
 package merge
 
 import (
+	"bytes"
 	"context"
+	"encoding/csv"
 	"encoding/json"
 	"os"
 	"path/filepath"
@@ -10,6 +12,7 @@ import (
 	"testing"
 
 	"github.com/quorate-eeg/quorate/panel/consensus"
+	"github.com/quorate-eeg/quorate/panel/packet"
 	"github.com/quorate-eeg/quorate/panel/returns"
 )
 
@@ -262,5 +265,46 @@ func TestLedgerWithoutItems(t *testing.T) {
 	st, err := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
 	if err != nil || st.Packets[0].State != "returned" || !st.ConsensusUpToDate {
 		t.Errorf("status %+v, %v", st, err)
+	}
+}
+
+// A sheet handed in later with rows missing (a rater deleted the rows they had
+// already answered on the page) once superseded the whole earlier return and
+// dropped the missing rows' counted answers. Missing rows give no value, so the
+// earlier answers of those items still count; the rows present replace theirs.
+func TestSheetWithMissingRowsKeepsAnswers(t *testing.T) {
+	o := testOptions(t)
+	in := t.TempDir()
+	o.Files = []string{writeReturn(t, in, o.Manifest, 0, func(i int) bool { return i < 2 }, "")}
+	if _, err := Run(context.Background(), o); err != nil {
+		t.Fatal(err)
+	}
+	first := ratingsOf(t, o, "ana")
+	e := o.Manifest.Packets[0]
+	var buf bytes.Buffer
+	w := csv.NewWriter(&buf)
+	w.Write(packet.SheetColumns)
+	// Only the last item's row is left, answered differently.
+	last := e.Items[len(e.Items)-1]
+	w.Write([]string{e.Packet, e.Check, e.Rater, last, "present", "present", "present", "present", "present", "present", "epileptiform", "", ""})
+	w.Flush()
+	sheet := filepath.Join(in, "sheet.csv")
+	os.WriteFile(sheet, buf.Bytes(), 0o644)
+	o.Files = []string{sheet}
+	res, err := Run(context.Background(), o)
+	if err != nil || len(res.Superseded) != 0 || len(res.Accepted) != 1 {
+		t.Fatalf("sheet of one row: %v %+v", err, res)
+	}
+	got := ratingsOf(t, o, "ana")
+	if len(got) != len(first) {
+		t.Fatalf("after the sheet: %d rated items, want %d", len(got), len(first))
+	}
+	for _, it := range e.Items[:len(e.Items)-1] {
+		if got[it] != first[it] {
+			t.Errorf("item %s: %q after the sheet, want the earlier %q", it, got[it], first[it])
+		}
+	}
+	if got[last] == first[last] {
+		t.Errorf("item %s: the sheet's answer does not count (%q)", last, got[last])
 	}
 }

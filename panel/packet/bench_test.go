@@ -1,6 +1,7 @@
 package packet
 
 import (
+	"context"
 	"fmt"
 	"path/filepath"
 	"testing"
@@ -18,7 +19,7 @@ func BenchmarkBuild500x7(b *testing.B) {
 	for b.Loop() {
 		opt := testOptions(filepath.Join(dir, fmt.Sprint(n)), raters...)
 		n++
-		res, err := Build(items, opt)
+		res, err := Build(context.Background(), items, opt)
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -34,7 +35,7 @@ func BenchmarkBuild300(b *testing.B) {
 	var size int64
 	n := 0
 	for b.Loop() {
-		res, err := Build(items, testOptions(filepath.Join(dir, fmt.Sprint(n)), "alice"))
+		res, err := Build(context.Background(), items, testOptions(filepath.Join(dir, fmt.Sprint(n)), "alice"))
 		n++
 		if err != nil {
 			b.Fatal(err)

@@ -66,7 +66,7 @@ func TestReviewPageInBrowser(t *testing.T) {
 	dir := t.TempDir()
 	items := browserItems()
 	opt := packet.Options{StudyID: "STUDY-B", Secret: []byte("browser-test-secret-0123"), Raters: []string{"alice"}, Seed: 9, OutDir: filepath.Join(dir, "packets")}
-	res, err := packet.Build(items, opt)
+	res, err := packet.Build(context.Background(), items, opt)
 	if err != nil {
 		t.Fatal(err)
 	}

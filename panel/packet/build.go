@@ -1,6 +1,7 @@
 package packet
 
 import (
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -32,23 +33,31 @@ type Written struct {
 // Build writes, under opt.OutDir, one folder per rater holding review.html
 // and sheet.csv, plus key.parquet and manifest.json for the coordinator.
 // The output depends only on items and opt: equal inputs give equal bytes.
-func Build(items []Item, opt Options) (*Result, error) {
+//
+// Build checks ctx before it touches OutDir, before each item is encoded and
+// before each rater's packet, and returns ctx's error as soon as it is done.
+// A Build stopped after it began writing leaves the rater folders written
+// so far but no key.parquet or manifest.json (both are written last), so
+// the stopped build is never taken for a whole one.
+func Build(ctx context.Context, items []Item, opt Options) (*Result, error) {
 	if err := validate(items, opt); err != nil {
+		return nil, err
+	}
+	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
 	montages := opt.Montages
 	if montages == nil {
 		montages = DefaultMontages(items[0].Electrodes)
 	}
-	if err := prepareOut(opt); err != nil {
-		return nil, err
-	}
-
 	// Traces are the same for every rater: encode once.
 	res := orDefault(opt.Resolution, DefaultResolution)
 	enc := make([]pageItem, len(items))
 	eventIDs := make([]string, len(items))
 	for i, it := range items {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
 		eventIDs[i] = it.EventID
 		t := encodeTraces(it.Samples, res)
 		from, to := it.RatedFrom, it.RatedTo
@@ -77,9 +86,20 @@ func Build(items []Item, opt Options) (*Result, error) {
 		}
 	}
 
+	// Earlier outputs are moved aside only once the items are encoded, so a
+	// stop during encoding leaves them where they were.
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	if err := prepareOut(opt); err != nil {
+		return nil, err
+	}
 	out := &Result{Manifest: Manifest{Format: ManifestFormat, Version: 1, Study: opt.StudyID}}
 	share := opt.duplicateShare()
 	for r, rater := range opt.Raters {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
 		pid := PacketID(opt.Secret, opt.StudyID, rater, opt.Seed, eventIDs)
 		// One stream per rater, so adding a rater leaves the others' orders alone.
 		rng := rand.New(rand.NewPCG(opt.Seed, uint64(r)+1))

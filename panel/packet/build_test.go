@@ -2,6 +2,7 @@ package packet
 
 import (
 	"bytes"
+	"context"
 	"encoding/csv"
 	"encoding/json"
 	"errors"
@@ -40,7 +41,7 @@ func files(t *testing.T, dir string) map[string][]byte {
 func TestNoLeak(t *testing.T) {
 	dir := t.TempDir()
 	items := SynthItems(20, 2, 64, 1)
-	res, err := Build(items, testOptions(dir, "alice", "bob"))
+	res, err := Build(context.Background(), items, testOptions(dir, "alice", "bob"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -115,10 +116,10 @@ func pageBlob(t *testing.T, path string) map[string]any {
 func TestBuildDeterministic(t *testing.T) {
 	items := SynthItems(30, 2, 64, 3)
 	a, b := t.TempDir(), t.TempDir()
-	if _, err := Build(items, testOptions(a, "alice", "bob", "carol")); err != nil {
+	if _, err := Build(context.Background(), items, testOptions(a, "alice", "bob", "carol")); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := Build(items, testOptions(b, "alice", "bob", "carol")); err != nil {
+	if _, err := Build(context.Background(), items, testOptions(b, "alice", "bob", "carol")); err != nil {
 		t.Fatal(err)
 	}
 	fa, fb := files(t, a), files(t, b)
@@ -133,7 +134,7 @@ func TestBuildDeterministic(t *testing.T) {
 	c := t.TempDir()
 	opt := testOptions(c, "alice", "bob", "carol")
 	opt.Seed++
-	if _, err := Build(items, opt); err != nil {
+	if _, err := Build(context.Background(), items, opt); err != nil {
 		t.Fatal(err)
 	}
 	if bytes.Equal(fa[filepath.Join("packets", ManifestFile)], files(t, c)[filepath.Join("packets", ManifestFile)]) {
@@ -144,7 +145,7 @@ func TestBuildDeterministic(t *testing.T) {
 func TestBuildOrdersAndKey(t *testing.T) {
 	dir := t.TempDir()
 	items := SynthItems(40, 1, 64, 5)
-	res, err := Build(items, testOptions(dir, "alice", "bob"))
+	res, err := Build(context.Background(), items, testOptions(dir, "alice", "bob"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -231,7 +232,7 @@ func TestBuildRefusesBadInput(t *testing.T) {
 		if c.opt != nil {
 			c.opt(&opt)
 		}
-		_, err := Build(c.items, opt)
+		_, err := Build(context.Background(), c.items, opt)
 		var ie *InputError
 		if !errors.As(err, &ie) || ie.Field != c.field {
 			t.Errorf("%s: err %v, want InputError on %s", c.name, err, c.field)
@@ -239,7 +240,7 @@ func TestBuildRefusesBadInput(t *testing.T) {
 	}
 	bad := SynthItems(2, 1, 32, 1)
 	bad[1].Samples[3][5] = float32(0) / float32(zero())
-	_, err := Build(bad, testOptions(dir, "alice"))
+	_, err := Build(context.Background(), bad, testOptions(dir, "alice"))
 	var ie *InputError
 	if !errors.As(err, &ie) || ie.Item != 1 || ie.Field != "Samples[3][5]" {
 		t.Errorf("NaN sample: err %v", err)
@@ -255,17 +256,17 @@ func TestBuildExistingFolder(t *testing.T) {
 	dir := t.TempDir()
 	items := SynthItems(3, 1, 32, 1)
 	opt := testOptions(dir, "alice")
-	if _, err := Build(items, opt); err != nil {
+	if _, err := Build(context.Background(), items, opt); err != nil {
 		t.Fatal(err)
 	}
 	first, _ := os.ReadFile(filepath.Join(opt.OutDir, "alice", PageFile))
 	var ee *ExistsError
-	if _, err := Build(items, opt); !errors.As(err, &ee) {
+	if _, err := Build(context.Background(), items, opt); !errors.As(err, &ee) {
 		t.Fatalf("second build: %v, want ExistsError", err)
 	}
 	opt.Replace = true
 	for n := 1; n <= 2; n++ {
-		if _, err := Build(items, opt); err != nil {
+		if _, err := Build(context.Background(), items, opt); err != nil {
 			t.Fatal(err)
 		}
 	}
@@ -286,7 +287,7 @@ func TestBuildExistingFolder(t *testing.T) {
 // items with duplicates) under 37 MB.
 func TestPacketSize300(t *testing.T) {
 	items := SynthItems(30, 16, 256, 11)
-	res, err := Build(items, testOptions(t.TempDir(), "alice"))
+	res, err := Build(context.Background(), items, testOptions(t.TempDir(), "alice"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -294,5 +295,35 @@ func TestPacketSize300(t *testing.T) {
 	t.Logf("%.1f kB per item: a 300-event packet (330 items) ≈ %.1f MB", per/1e3, per*330/1e6)
 	if per > 110e3 {
 		t.Errorf("%.0f bytes per item, want at most 110 kB", per)
+	}
+}
+
+// A cancelled context stops Build before it touches the packets folder: with
+// Replace, the earlier packets are not moved aside and nothing is written.
+func TestBuildHonoursCancel(t *testing.T) {
+	dir := t.TempDir()
+	items := SynthItems(3, 1, 32, 1)
+	opt := testOptions(dir, "alice")
+	if _, err := Build(context.Background(), items, opt); err != nil {
+		t.Fatal(err)
+	}
+	before := files(t, opt.OutDir)
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	opt.Replace = true
+	if _, err := Build(ctx, items, opt); !errors.Is(err, context.Canceled) {
+		t.Fatalf("cancelled build: %v, want context.Canceled", err)
+	}
+	after := files(t, opt.OutDir)
+	if len(after) != len(before) {
+		t.Fatalf("cancelled build changed the folder: %d files, were %d", len(after), len(before))
+	}
+	for p, b := range before {
+		if !bytes.Equal(after[p], b) {
+			t.Errorf("%s changed by a cancelled build", p)
+		}
+	}
+	if _, err := Build(ctx, items, testOptions(t.TempDir(), "bob")); !errors.Is(err, context.Canceled) {
+		t.Fatalf("cancelled first build: %v, want context.Canceled", err)
 	}
 }

@@ -2,6 +2,7 @@ package returns
 
 import (
 	"bytes"
+	"context"
 	"encoding/csv"
 	"encoding/json"
 	"errors"
@@ -30,7 +31,7 @@ func TestMain(m *testing.M) {
 		items[i] = packet.Item{EventID: "ev" + string(rune('a'+i)), Rate: 32, Electrodes: []string{"Fp1", "Fp2"},
 			Samples: [][]float32{make([]float32, 64), make([]float32, 64)}, EventAt: 1}
 	}
-	res, err := packet.Build(items, packet.Options{StudyID: "STUDY-R", Secret: []byte("returns-test-secret-16+"), Raters: []string{"alice", "bob"}, Seed: 3, OutDir: filepath.Join(dir, "packets")})
+	res, err := packet.Build(context.Background(), items, packet.Options{StudyID: "STUDY-R", Secret: []byte("returns-test-secret-16+"), Raters: []string{"alice", "bob"}, Seed: 3, OutDir: filepath.Join(dir, "packets")})
 	if err != nil {
 		panic(err)
 	}

@@ -25,10 +25,9 @@ import "math"
 // to 0 at r = 2, because an "opposite phase" larger than the main phase
 // means the main phase is a wiggle riding on a larger wave, not the
 // discharge itself: the zero-phase filter's ringing just before a pop's
-// step is the commonest case. (The fold 1/r used before let a ringing lobe
-// with a pop four times its size after it score √(P/4), and a step's P is
-// large.) The geometric
-// mean keeps S scale-free, like P and q, and lets neither half dominate.
+// step is the commonest case (FEATURES.md, c1, gives the figures). The
+// geometric mean keeps S scale-free (unit none), like P and q, and lets
+// neither half dominate.
 // Relating the curvature to the duration makes P scale-free too: a short
 // wave is not counted as sharp merely for being short (that is criterion
 // 2's business), only a peak more pointed than a rounded wave of its length
@@ -77,8 +76,8 @@ const preBaseS = 0.3
 //	r = max_{i ∈ [right, right+min(D, 100 ms)]} (−sign·(x[i] − b)) / (sign·(x[p] − b))
 //
 // The baseline is taken before the event on purpose: a pop's or a blink's
-// slow return lifts any median that reaches after the peak (a ±0.5 s median
-// was tried and rejected for that), and a median ignores the event's own
+// slow return lifts any median that reaches after the peak, and a median
+// ignores the event's own
 // samples only if it stays clear of them. Only the phase after the main one
 // is looked for: it is present in both the di- and the triphasic form, and
 // the stretch before the step of a pop holds only background. NaN when the

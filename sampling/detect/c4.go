@@ -34,10 +34,10 @@ const (
 // monophasic wave lies above the pre-event baseline too, but keeps falling
 // from the point where the main phase ended, so its window mean lies below
 // that point and it is not counted as an after-going slow wave. (g = right
-// − left, so both windows start at the right base.) On the generated
-// recordings of seeds 3–6, 1–2 and 7–10 the AUC went 0.900 → 0.923, 0.906
-// → 0.971 and 0.871 → 0.939 (FEATURES.md, c4). NaN when the background
-// holds no full geometry.
+// − left, so both windows start at the right base.) Unit: background
+// standard deviations of the same statistic; FEATURES.md (c4) gives the
+// figures the second term was adopted on. NaN when the background holds no
+// full geometry.
 func slowWave(t *trace, ph phase, sc *scratch) float64 {
 	W, B := int(math.Round(slowWinS*t.fs)), int(math.Round(slowBaseS*t.fs))
 	g := ph.right - ph.left

@@ -34,9 +34,8 @@ const floorBlockS = 0.5
 // the total. The quietest half-second of the surrounding 32 s bounds that
 // floor from above (it holds the floor plus the least background), and the
 // ratio is taken of what lies above it: relative to the channel's own
-// floor rather than to a generator's noise level. A recording whose
-// attenuation scales everything (the first generator multiplies the whole
-// channel) loses a little: seeds 3–6 0.950 → 0.939 (FEATURES.md, c5).
+// floor rather than to a generator's noise level. FEATURES.md (c5) gives
+// the figures the floor and the window were chosen on.
 //
 // c5 is positive when activity after the event is lower than around it: 0.3
 // means the excess over the floor is 45 % lower in power. It is signed on

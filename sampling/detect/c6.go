@@ -14,11 +14,8 @@ import (
 // common practice in source analysis), while the map of a single-electrode
 // pop, a burst of muscle or the orbits' dipoles of a blink is more focal
 // than any source at that depth can make it: the skull smears a cerebral
-// field. With the fitter's default bound (0.95, the brain's edge) those maps
-// were fitted at the bound with a goodness of fit of 0.84–0.95; with 0.85
-// the AUC of c6 rose 0.861 → 0.895 on seeds 3–6 (where the bound was
-// chosen: 0.75 0.896, 0.9 0.882, 0.99 0.837) and 0.889 → 0.909 on the
-// held-out seeds (FEATURES.md, c6).
+// field. Unit: fraction of the brain radius (headmodel.Fitter's bound).
+// FEATURES.md (c6) gives the figures the bound was chosen on.
 const fitEccentricity = 0.85
 
 // fieldResult is criterion 6's measures.

@@ -105,7 +105,10 @@ func (s Sphere) transfers(t float64) []float64 {
 // B = Σ τ_n t^(n−1) P_n', the coefficients of ŝ and ê in the lead vector.
 // P_n follows Bonnet's recurrence and P_n' the recurrence
 // P'_{n+1} = P'_{n−1} + (2n+1) P_n (Abramowitz & Stegun 1964, chs. 8
-// and 22; from memory), which stays finite at x = ±1.
+// and 22; the chapters from memory), which stays finite at x = ±1. The
+// potentials built from it are checked against an independent solution
+// with scipy.special.eval_legendre and numpy.linalg.solve in
+// TestMultiShellAgainstReference (testdata/gen_sphere.py).
 func seriesLead(taus []float64, t, x float64) (a, b float64) {
 	pPrev, p := 1.0, x   // P_0, P_1
 	dPrev, d := 0.0, 1.0 // P_0', P_1'

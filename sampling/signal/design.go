@@ -70,7 +70,9 @@ func Butterworth(kind Kind, order int, fs float64, edges ...float64) (SOS, error
 //	H(z) = g(1 − 2cos ω₀ z⁻¹ + z⁻²) / (1 − 2g·cos ω₀ z⁻¹ + (2g−1) z⁻²)
 //
 // (Orfanidis, Introduction to Signal Processing, 1996, §11.3, notch design
-// from the bilinear transform of an analogue notch; from memory). It is
+// from the bilinear transform of an analogue notch; the section from
+// memory, the coefficients checked against scipy.signal.iirnotch in
+// TestNotchScipy, testdata/gen_scipy.py). It is
 // one section whose zeros lie on the unit circle at exactly f0, so mains
 // interference is removed completely while the response is within 3 dB of
 // unity outside f0 ± Δf/2. A narrow Butterworth band-stop was not chosen:

@@ -6,7 +6,8 @@ import "math"
 // so the result has the real, even response |H|² and zero phase: a
 // symmetric waveform such as a spike keeps its peak where it was
 // (Oppenheim & Schafer 2010, ch. 5, zero-phase filtering by time
-// reversal; from memory).
+// reversal; the chapter from memory; the output checked against
+// scipy.signal.sosfiltfilt in TestFiltFiltScipy, testdata/gen_scipy.py).
 //
 // Edges: the signal is extended at each end by odd reflection about its
 // end sample, 2x[0] − x[i] and 2x[n−1] − x[n−1−i], over Pad() samples,

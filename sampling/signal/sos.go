@@ -87,7 +87,9 @@ func roots(r []complex128) []root {
 // with the zeros nearest to it, and place that section last, so the
 // sections with the highest gain peaking come at the end of the cascade
 // where the signal has already been band-limited (Jackson, Digital Filters
-// and Signal Processing, 3rd ed., 1996, §11.4; from memory). Odd orders
+// and Signal Processing, 3rd ed., 1996, §11.4; the section from memory;
+// the sections checked against scipy.signal.butter(output="sos") in
+// TestButterworthScipy, testdata/gen_scipy.py). Odd orders
 // get a pole and zero at the origin. The overall gain k goes into the
 // first section.
 // This is the grouping scipy.signal.zpk2sos calls "nearest", so sections

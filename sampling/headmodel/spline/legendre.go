@@ -7,8 +7,10 @@ import "math"
 //	g_m(x) = 1/(4π) Σ_{n=1}^{nTerms} (2n+1) / (n(n+1))^m · P_n(x),
 //
 // with P_n from Bonnet's recurrence (n+1)P_{n+1} = (2n+1)xP_n − nP_{n−1}
-// (Abramowitz & Stegun 1964, 22.7.10; from memory). x is clamped to
-// [−1, 1].
+// (Abramowitz & Stegun 1964, 22.7.10; the equation number from memory,
+// the values checked against scipy.special.eval_legendre in
+// TestLegendreClosedForm and TestKernelAgainstScipy, testdata/gen_spline.py).
+// x is clamped to [−1, 1].
 func G(m, nTerms int, x float64) float64 {
 	return kernel(weights(m, nTerms), x)
 }
