@@ -130,7 +130,7 @@ func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags
 	}
 	// The page opens with study.yaml's montage and filters; raters may change them.
 	filters := packet.Filters{LowHz: c.Signal.Bandpass[0], HighHz: c.Signal.Bandpass[1], NotchHz: c.Signal.NotchHz}
-	res, err := packet.Build(ctx, items, packet.Options{StudyID: c.Study.ID, Secret: secret, Raters: raters,
+	res, err := packet.Run(ctx, packet.Options{Items: items, StudyID: c.Study.ID, Secret: secret, Raters: raters,
 		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir),
 		Montages: packet.FirstMontage(packet.DefaultMontages(items[0].Electrodes), c.Signal.Montage), Filters: &filters})
 	if err != nil {

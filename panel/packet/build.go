@@ -30,6 +30,11 @@ type Written struct {
 	PageBytes     int64
 }
 
+// Run is the packets stage's entry point: Build(ctx, o.Items, o).
+func Run(ctx context.Context, o Options) (*Result, error) {
+	return Build(ctx, o.Items, o)
+}
+
 // Build writes, under opt.OutDir, one folder per rater holding review.html
 // and sheet.csv, plus key.parquet and manifest.json for the coordinator.
 // The output depends only on items and opt: equal inputs give equal bytes.

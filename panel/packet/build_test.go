@@ -304,14 +304,15 @@ func TestBuildHonoursCancel(t *testing.T) {
 	dir := t.TempDir()
 	items := SynthItems(3, 1, 32, 1)
 	opt := testOptions(dir, "alice")
-	if _, err := Build(context.Background(), items, opt); err != nil {
+	opt.Items = items
+	if _, err := Run(context.Background(), opt); err != nil {
 		t.Fatal(err)
 	}
 	before := files(t, opt.OutDir)
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()
 	opt.Replace = true
-	if _, err := Build(ctx, items, opt); !errors.Is(err, context.Canceled) {
+	if _, err := Run(ctx, opt); !errors.Is(err, context.Canceled) {
 		t.Fatalf("cancelled build: %v, want context.Canceled", err)
 	}
 	after := files(t, opt.OutDir)

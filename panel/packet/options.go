@@ -2,6 +2,9 @@ package packet
 
 // Options configures Build.
 type Options struct {
+	// Items are the events to rate, each with its excerpt; Run passes them
+	// to Build.
+	Items []Item
 	// StudyID names the study; it is shown in the page and returned by raters
 	// so a return for another study is refused.
 	StudyID string
