@@ -173,8 +173,20 @@ func runDraw(ctx context.Context, g *globals, s *study.Study, f *drawFlags) erro
 			nc++
 		}
 	}
-	fmt.Fprintf(g.stdout, "Drew %d events in %d strata and %d background controls (of %d eligible epochs) from %d candidates; see %s.\n",
-		len(res.Rows)-nc, len(res.Strata), nc, res.Eligible, len(cands), s.Path(study.DrawDir, draw.StrataFile))
+	if f.topUp > 0 {
+		added := 0
+		for _, r := range res.Rows {
+			if r.Kind == draw.KindCandidate && int(r.Phase) == res.Phase.Phase {
+				added++
+			}
+		}
+		// A top-up draws no controls: the earlier phases' controls stay as they were.
+		fmt.Fprintf(g.stdout, "Phase %d: drew %d more events (%d in all, in %d strata) from %d candidates; the %d background controls are unchanged; see %s.\n",
+			res.Phase.Phase, added, len(res.Rows)-nc, len(res.Strata), len(cands), nc, s.Path(study.DrawDir, draw.StrataFile))
+	} else {
+		fmt.Fprintf(g.stdout, "Drew %d events in %d strata and %d background controls (of %d eligible epochs) from %d candidates; see %s.\n",
+			len(res.Rows)-nc, len(res.Strata), nc, res.Eligible, len(cands), s.Path(study.DrawDir, draw.StrataFile))
+	}
 	return g.finish(len(res.Warnings))
 }
 

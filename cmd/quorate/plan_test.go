@@ -47,8 +47,11 @@ func TestPlanAndAdaptiveTopUpOnDemo(t *testing.T) {
 	if _, err := run("draw", "--top-up", "-10"); err == nil {
 		t.Error("draw --top-up -10 accepted")
 	}
-	if _, err := run("draw", "--top-up", "40", "--adaptive"); err != nil {
+	if o, err := run("draw", "--top-up", "40", "--adaptive"); err != nil {
 		t.Fatal(err)
+	} else if !strings.Contains(o, "Phase 2: drew 40 more events") || strings.Contains(o, "of 0 eligible") {
+		// A top-up draws no controls; it once reported "of 0 eligible epochs".
+		t.Errorf("top-up summary:\n%s", o)
 	}
 	b, err := os.ReadFile(filepath.Join(st, "draw", draw.DesignFile))
 	if err != nil {
