@@ -157,7 +157,11 @@ func TestDemoEndToEnd(t *testing.T) {
 	// question) lies in a plausible band. Most drawn events are background, where nearly
 	// every answer is "absent", so kappa is depressed by prevalence (Feinstein & Cicchetti
 	// 1990); observed agreement and Gwet's AC1, which is not (Gwet 2008), carry the check,
-	// and kappa must only stay above chance and below perfect.
+	// and kappa must only stay above chance and below perfect. The floor of observed
+	// agreement follows from the rater model (panel/simulate.Panel): two raters who
+	// are each right with probability ≥ 0.75 agree with probability ≥ 0.75² + 0.25²
+	// = 0.625, a little less with lapses; 0.6 leaves that margin. Criterion 6, the
+	// hardest (accuracy 0.75–0.88), sits nearest it once the draw holds many IEDs.
 	var agr consensus.Agreement
 	b, _ := os.ReadFile(filepath.Join(st, study.ConsensusDir, merge.AgreementJSON))
 	if err := json.Unmarshal(b, &agr); err != nil || len(agr.Questions) != 7 {
@@ -165,8 +169,8 @@ func TestDemoEndToEnd(t *testing.T) {
 	}
 	for _, q := range agr.Questions {
 		po, ac1, k := float64(q.Observed.Value), float64(q.AC1.Value), float64(q.Fleiss.Value)
-		if po < 0.7 || po > 0.99 || ac1 < 0.4 || ac1 > 0.99 || k <= 0 || k >= 0.95 {
-			t.Errorf("%s: observed agreement %.2f, AC1 %.2f, kappa %.2f outside the plausible band (0.7–0.99, 0.4–0.99, 0–0.95)", q.Question, po, ac1, k)
+		if po < 0.6 || po > 0.99 || ac1 < 0.4 || ac1 > 0.99 || k <= 0 || k >= 0.95 {
+			t.Errorf("%s: observed agreement %.2f, AC1 %.2f, kappa %.2f outside the plausible band (0.6–0.99, 0.4–0.99, 0–0.95)", q.Question, po, ac1, k)
 		}
 	}
 
