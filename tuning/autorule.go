@@ -60,7 +60,7 @@ type AutoCandidate struct {
 // cutoff, and the rest are misses. The policy then picks k among the six
 // results (ties to the larger k). Rates are design-weighted.
 type AutoRule struct {
-	Method  string          // MethodCriterion or MethodJoint
+	Method  string          // MethodVerdict, MethodCriterion or MethodJoint
 	ByK     []AutoCandidate // K = 1…6
 	Chosen  int             // index into ByK
 	K       int

@@ -48,15 +48,27 @@ type criterionFit struct {
 // fitCriterion finds the direction and Youden cutoff of feature j against
 // the majority for j.
 func fitCriterion(s *evset, j int, withPlain bool) criterionFit {
+	return fitFeature(s, j, withPlain, false)
+}
+
+// fitFeature finds the direction and Youden cutoff of feature j against
+// the panel majority for criterion j, or, with byVerdict, against the
+// reference standard (the IED verdict) on every event where the feature is
+// measured.
+func fitFeature(s *evset, j int, withPlain, byVerdict bool) criterionFit {
 	var x, w []float64
 	var t []bool
 	for i, e := range s.src {
 		v := e.Features[j]
-		if e.Majority[j] == -1 || math.IsNaN(v) {
+		if math.IsNaN(v) || (!byVerdict && e.Majority[j] == -1) {
 			continue
 		}
 		x = append(x, v)
-		t = append(t, e.Majority[j] == 1)
+		if byVerdict {
+			t = append(t, s.truth[i])
+		} else {
+			t = append(t, e.Majority[j] == 1)
+		}
 		w = append(w, s.weight[i])
 	}
 	name := candidate.FeatureNames[j]
@@ -68,9 +80,16 @@ func fitCriterion(s *evset, j int, withPlain bool) criterionFit {
 	}
 	switch {
 	case len(x) == 0:
+		if byVerdict {
+			return criterionFit{skip: fmt.Sprintf("c%d: no event with a reference has a measured %s", j+1, name)}
+		}
 		return criterionFit{skip: fmt.Sprintf("c%d: no event has both a panel decision and a measured %s", j+1, name)}
 	case pos == 0 || pos == len(x):
-		return criterionFit{skip: fmt.Sprintf("c%d: the panel majority is the same for all %d events; no ROC for %s", j+1, len(x), name)}
+		label := "panel majority"
+		if byVerdict {
+			label = "reference standard"
+		}
+		return criterionFit{skip: fmt.Sprintf("c%d: the %s is the same for all %d events; no ROC for %s", j+1, label, len(x), name)}
 	}
 	lo, hi := x[0], x[0]
 	for _, v := range x {

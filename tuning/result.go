@@ -7,7 +7,7 @@ import "github.com/quorate-eeg/quorate/tuning/accuracy"
 // in-sample, cross-validated and bootstrap figures.
 type OperatingPoint struct {
 	Analysis  string // which analysis produced the rule
-	Method    string // MethodCriterion or MethodJoint
+	Method    string // MethodVerdict, MethodCriterion or MethodJoint
 	Rule      string // the rule in words
 	Policy    accuracy.Policy
 	Reference string // the reference standard's name

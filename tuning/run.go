@@ -102,7 +102,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 
 	method := o.Method
 	if method == "" {
-		method = MethodCriterion
+		method = MethodVerdict
 	}
 	f, fw, err := fitRule(s, method, o.Policy)
 	for _, w := range fw {
@@ -151,7 +151,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		// The other fitting method, side by side with its own honest figures.
 		other := MethodJoint
 		if method == MethodJoint {
-			other = MethodCriterion
+			other = MethodVerdict
 		}
 		if g, _, err := fitRule(s, other, o.Policy); g != nil {
 			_ = err // a policy no rule meets still shows the nearest rule
@@ -198,6 +198,9 @@ func contains(v []string, s string) bool {
 func analysisName(method string) string {
 	if method == MethodJoint {
 		return "automatic rule: at least k criteria met, six cutoffs and k searched jointly against the reference standard"
+	}
+	if method == MethodVerdict {
+		return "automatic rule: at least k criteria met, each cutoff read off its feature's ROC against the reference standard at one shared point (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
 	}
 	return "automatic rule: at least k criteria met, each cutoff fitted to its criterion's panel majority at one shared point of their ROCs (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
 }

@@ -1,0 +1,84 @@
+package tuning
+
+import (
+	"encoding/json"
+	"math"
+	"os"
+	"testing"
+
+	"github.com/quorate-eeg/quorate/tuning/accuracy"
+)
+
+// MethodVerdict reads each feature's cutoff off its ROC against the
+// reference standard, MethodCriterion against the criterion's panel
+// majority. testdata/youden_verdict.py gives both design-weighted Youden
+// thresholds from scikit-learn's roc_curve (sample_weight) for a feature
+// whose majority disagrees with the verdict on a quarter of the events.
+func TestFitFeatureByVerdict(t *testing.T) {
+	b, err := os.ReadFile("testdata/youden_verdict.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var ref struct {
+		Feature           []float64
+		Verdict, Majority []bool
+		Weight            []float64
+		YoudenVerdict     float64 `json:"youden_verdict"`
+		YoudenMajority    float64 `json:"youden_majority"`
+		JVerdict          float64 `json:"j_verdict"`
+	}
+	if err := json.Unmarshal(b, &ref); err != nil {
+		t.Fatal(err)
+	}
+	var ev []Event
+	for i, x := range ref.Feature {
+		e := Event{Subject: string(rune('a' + i%8)), Weight: ref.Weight[i]}
+		for j := range 6 {
+			e.Majority[j] = -1
+			e.Features[j] = math.NaN()
+		}
+		e.Features[2] = x
+		if ref.Majority[i] {
+			e.Majority[2] = 1
+		} else {
+			e.Majority[2] = 0
+		}
+		if ref.Verdict[i] {
+			e.Reference = 1
+		}
+		ev = append(ev, e)
+	}
+	o := Options{Events: ev}
+	s, _, err := prepare(&o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fv := fitFeature(s, 2, false, true)
+	fm := fitFeature(s, 2, false, false)
+	if !fv.ok || fv.dir != 1 || fv.cut != ref.YoudenVerdict {
+		t.Errorf("against the verdict: ok %v, direction %v, cutoff %v; scikit-learn %v", fv.ok, fv.dir, fv.cut, ref.YoudenVerdict)
+	}
+	if !fm.ok || fm.dir != 1 || fm.cut != ref.YoudenMajority {
+		t.Errorf("against the majority: ok %v, direction %v, cutoff %v; scikit-learn %v", fm.ok, fm.dir, fm.cut, ref.YoudenMajority)
+	}
+	// With one feature the Youden policy's rule is "x ≥ cut" at the
+	// verdict's Youden threshold (its J is the curve's unique maximum), the
+	// cutoff printed in the gap below it.
+	f, _, err := fitRule(s, MethodVerdict, accuracy.Policy{Kind: accuracy.Youden})
+	if err != nil {
+		t.Fatal(err)
+	}
+	below := math.Inf(-1)
+	for _, x := range ref.Feature {
+		if x < ref.YoudenVerdict {
+			below = math.Max(below, x)
+		}
+	}
+	if f.k != 1 || !(f.cut[2] > below && f.cut[2] < ref.YoudenVerdict) {
+		t.Errorf("rule k=%d cutoff %v, want k=1 and a cutoff in (%v, %v)", f.k, f.cut[2], below, ref.YoudenVerdict)
+	}
+	c := accuracy.Tally(f.decide(s), s.truth, s.weight)
+	if j := c.Sensitivity() + c.Specificity() - 1; math.Abs(j-ref.JVerdict) > 1e-12 {
+		t.Errorf("weighted J of the rule %v, scikit-learn %v", j, ref.JVerdict)
+	}
+}
