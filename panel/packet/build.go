@@ -30,8 +30,12 @@ type Written struct {
 	PageBytes     int64
 }
 
-// Run is the packets stage's entry point: Build(ctx, o.Items, o).
+// Run is the packets stage's entry point: Build(ctx, o.Items, o), or
+// Extend(ctx, o.Items, o) when o.Phase is 2 or more.
 func Run(ctx context.Context, o Options) (*Result, error) {
+	if o.Phase >= 2 {
+		return Extend(ctx, o.Items, o)
+	}
 	return Build(ctx, o.Items, o)
 }
 
