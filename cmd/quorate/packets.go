@@ -39,9 +39,17 @@ other rater's answer reaches a packet. A share of items appears twice under diff
 codes, to measure each rater's agreement with themself. Each packet carries a check value
 keyed with the study secret so that returns can be matched and tampering detected.
 
---raters takes a number (fictional names rater-1 … rater-N) or a list of folder-safe names.`,
+--raters takes a number (fictional names rater-1 … rater-N) or a list of folder-safe names.
+
+After draw --top-up, packets (without --replace) builds one more packet per rater for the
+events of the new phase only, in packets/<rater>/phase-N/, and appends them to key.parquet
+and manifest.json; the earlier packets and every answer returned for them stay. A later
+phase goes to the same panel (by default the raters of the existing packets). --replace
+rebuilds every packet under new packet ids instead: answers to the old packets no longer
+count, so use it after a new draw, not after a top-up.`,
 		Example: `  quorate --study /studies/ied-2027 packets --raters amara,bjorn,chidi,dana,emeka,farah,goran
-  quorate --study /studies/ied-2027 packets --raters 5 --replace`,
+  quorate --study /studies/ied-2027 packets --raters 5 --replace
+  quorate --study /studies/ied-2027 draw --top-up 100 --adaptive && quorate --study /studies/ied-2027 packets`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			s, err := g.openStudy()
