@@ -18,6 +18,7 @@ import (
 
 type packetsFlags struct {
 	raters    string
+	ratersSet bool // --raters was given (not study.yaml's panel.raters)
 	seed      uint64
 	replace   bool
 	duplicate float64
@@ -58,7 +59,8 @@ count, so use it after a new draw, not after a top-up.`,
 			}
 			c := s.Config
 			set := cmd.Flags().Changed
-			if !set("raters") {
+			f.ratersSet = set("raters")
+			if !f.ratersSet {
 				f.raters = strings.Join(c.Panel.Raters, ",")
 			}
 			if !set("seed") {
@@ -119,8 +121,12 @@ func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags
 	manPath := s.Path(study.PacketsDir, packet.ManifestFile)
 	var phase int
 	if _, err := os.Stat(manPath); err == nil && !f.replace {
-		if rows, phase, err = laterPhase(s, rows, &f.raters); err != nil {
+		var panel []string
+		if rows, phase, panel, err = laterPhase(s, rows); err != nil {
 			return err
+		}
+		if !f.ratersSet {
+			f.raters = strings.Join(panel, ",")
 		}
 	}
 	raters, err := parseRaters(f.raters)
@@ -196,21 +202,20 @@ func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags
 // belong to, when they are a later phase than every row the packets show: the
 // events a draw --top-up added. It refuses when there are none, when the packets
 // show events the draw no longer holds (the draw was replaced), or when the new
-// rows are not of a later phase. With no --raters and no panel.raters in
-// study.yaml, raters becomes the panel of the existing packets.
-func laterPhase(s *study.Study, rows []draw.Row, raters *string) ([]draw.Row, int, error) {
+// rows are not of a later phase. panel is the raters of the existing packets, who
+// rate a later phase unless --raters names others (which Extend refuses).
+func laterPhase(s *study.Study, rows []draw.Row) (fresh []draw.Row, phase int, panel []string, err error) {
 	manPath, keyPath := s.Path(study.PacketsDir, packet.ManifestFile), s.Path(study.PacketsDir, packet.KeyFile)
 	m, err := packet.ReadManifest(manPath)
 	if err != nil {
-		return nil, 0, err
+		return nil, 0, nil, err
 	}
 	key, err := packet.ReadKey(keyPath)
 	if err != nil {
-		return nil, 0, err
+		return nil, 0, nil, err
 	}
 	covered := packet.Covered(m, key)
 	inDraw := make(map[string]bool, len(rows))
-	var fresh []draw.Row
 	lastCovered := int32(0)
 	for _, r := range rows {
 		inDraw[r.EventID] = true
@@ -227,25 +232,22 @@ func laterPhase(s *study.Study, rows []draw.Row, raters *string) ([]draw.Row, in
 		}
 	}
 	if gone > 0 {
-		return nil, 0, fmt.Errorf("the packets in %s show %d event(s) that %s no longer holds (was the draw replaced?); "+
+		return nil, 0, nil, fmt.Errorf("the packets in %s show %d event(s) that %s no longer holds (was the draw replaced?); "+
 			"run quorate packets --replace to rebuild every packet (the old ones are kept beside the new, but their answers will not count)",
 			s.Path(study.PacketsDir), gone, s.Path(study.DrawDir, draw.DrawFile))
 	}
 	if len(fresh) == 0 {
-		return nil, 0, fmt.Errorf("%s already exists and its %d packets show every event of the draw; "+
+		return nil, 0, nil, fmt.Errorf("%s already exists and its %d packets show every event of the draw; "+
 			"to add events run quorate draw --top-up N first, or add --replace to rebuild every packet", manPath, len(m.Packets))
 	}
-	phase := int32(0)
+	last := int32(0)
 	for _, r := range fresh {
 		if r.Phase <= lastCovered {
-			return nil, 0, fmt.Errorf("%s holds %d event(s) no packet shows, among them %s of phase %d, but the packets already show phase %d: "+
+			return nil, 0, nil, fmt.Errorf("%s holds %d event(s) no packet shows, among them %s of phase %d, but the packets already show phase %d: "+
 				"only a later phase (quorate draw --top-up N) gets packets of its own; add --replace to rebuild every packet",
 				s.Path(study.DrawDir, draw.DrawFile), len(fresh), r.EventID, r.Phase, lastCovered)
 		}
-		phase = max(phase, r.Phase)
+		last = max(last, r.Phase)
 	}
-	if strings.TrimSpace(*raters) == "" {
-		*raters = strings.Join(m.Raters(), ",")
-	}
-	return fresh, int(phase), nil
+	return fresh, int(last), m.Raters(), nil
 }

@@ -1,8 +1,11 @@
 package main
 
 import (
+	"bytes"
 	"errors"
+	"io/fs"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"reflect"
 	"sort"
@@ -77,7 +80,12 @@ func TestTwoPhaseStudy(t *testing.T) {
 	if _, err := run(t, "--study", st, "packets", "--raters", "2"); err == nil || !strings.Contains(err.Error(), "same panel") {
 		t.Fatalf("packets --raters 2 for phase 2: %v, want a refusal naming the panel", err)
 	}
-	// No --raters (the demo's study.yaml names none): the packets' own panel.
+	// A copy of the study at this point, to build the same phase-2 packets again.
+	twin := filepath.Join(t.TempDir(), "study")
+	if b, err := exec.Command("cp", "-a", st, twin).CombinedOutput(); err != nil {
+		t.Fatalf("copy: %v %s", err, b)
+	}
+	// No --raters: the packets' own panel.
 	out, err := run(t, "--study", st, "packets")
 	if err != nil && !isWarnings(err) {
 		t.Fatal("packets for phase 2:", err)
@@ -87,6 +95,28 @@ func TestTwoPhaseStudy(t *testing.T) {
 	}
 	if _, err := run(t, "--study", st, "packets"); err == nil || !strings.Contains(err.Error(), "show every event of the draw") {
 		t.Errorf("packets again: %v, want a refusal saying every event is in a packet", err)
+	}
+
+	// Same inputs and seed, same bytes (the raters named, in another order).
+	if _, err := run(t, "--study", twin, "packets", "--raters", "fictional-rater-c-hurried,fictional-rater-a,fictional-rater-b"); err != nil && !isWarnings(err) {
+		t.Fatal("packets for phase 2 in the copy:", err)
+	}
+	var n int
+	filepath.WalkDir(s.Path(study.PacketsDir), func(p string, d fs.DirEntry, err error) error {
+		if err != nil || d.IsDir() {
+			return err
+		}
+		rel, _ := filepath.Rel(st, p)
+		a, _ := os.ReadFile(p)
+		b, err := os.ReadFile(filepath.Join(twin, rel))
+		if err != nil || !bytes.Equal(a, b) {
+			t.Errorf("%s differs between two equal builds (%v)", rel, err)
+		}
+		n++
+		return nil
+	})
+	if n != 2+4*3 {
+		t.Errorf("%d files under packets/, want key, manifest and two files per packet (12)", n)
 	}
 
 	key, err := packet.ReadKey(pk(packet.KeyFile))
