@@ -224,6 +224,11 @@ func TestTwoPhaseStudy(t *testing.T) {
 	if len(st2.Packets) != 6 || st2.Owed != 0 {
 		t.Errorf("status: %d packets, %d items owed, want 6 and 0", len(st2.Packets), st2.Owed)
 	}
+	for i, p := range st2.Packets {
+		if want := 1 + i/3; p.Phase != want || p.State != "returned" {
+			t.Errorf("status of %s: phase %d, %s; want phase %d, returned", p.Packet, p.Phase, p.State, want)
+		}
+	}
 
 	// tune runs on the union, each event weighted by the union's design weight.
 	if _, err := run(t, "--study", st, "tune"); err != nil && !isWarnings(err) {
