@@ -172,9 +172,9 @@ func writeStatus(w io.Writer, st merge.Status) {
 	fmt.Fprintf(w, "%d packets, %d items (%d of them hidden duplicates) showing %d events; %d items owed.\n",
 		len(st.Packets), st.Items, st.Duplicates, st.Events, st.Owed)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
-	fmt.Fprintln(tw, "packet\trater\tstate\titems\towes\treturns\tsuperseded\t")
+	fmt.Fprintln(tw, "packet\trater\tphase\tstate\titems\towes\treturns\tsuperseded\t")
 	for _, p := range st.Packets {
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%d\t%d\t%d\t%d\t\n", p.Packet, p.Rater, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
+		fmt.Fprintf(tw, "%s\t%s\t%d\t%s\t%d\t%d\t%d\t%d\t\n", p.Packet, p.Rater, p.Phase, p.State, p.Items, p.Owes, p.Returns, p.Superseded)
 	}
 	tw.Flush()
 	for _, p := range st.Packets {

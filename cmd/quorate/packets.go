@@ -3,6 +3,7 @@ package main
 import (
 	"context"
 	"fmt"
+	"os"
 	"strconv"
 	"strings"
 
@@ -17,6 +18,7 @@ import (
 
 type packetsFlags struct {
 	raters    string
+	ratersSet bool // --raters was given (not study.yaml's panel.raters)
 	seed      uint64
 	replace   bool
 	duplicate float64
@@ -38,9 +40,17 @@ other rater's answer reaches a packet. A share of items appears twice under diff
 codes, to measure each rater's agreement with themself. Each packet carries a check value
 keyed with the study secret so that returns can be matched and tampering detected.
 
---raters takes a number (fictional names rater-1 … rater-N) or a list of folder-safe names.`,
+--raters takes a number (fictional names rater-1 … rater-N) or a list of folder-safe names.
+
+After draw --top-up, packets (without --replace) builds one more packet per rater for the
+events of the new phase only, in packets/<rater>/phase-N/, and appends them to key.parquet
+and manifest.json; the earlier packets and every answer returned for them stay. A later
+phase goes to the same panel (by default the raters of the existing packets). --replace
+rebuilds every packet under new packet ids instead: answers to the old packets no longer
+count, so use it after a new draw, not after a top-up.`,
 		Example: `  quorate --study /studies/ied-2027 packets --raters amara,bjorn,chidi,dana,emeka,farah,goran
-  quorate --study /studies/ied-2027 packets --raters 5 --replace`,
+  quorate --study /studies/ied-2027 packets --raters 5 --replace
+  quorate --study /studies/ied-2027 draw --top-up 100 --adaptive && quorate --study /studies/ied-2027 packets`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			s, err := g.openStudy()
@@ -49,7 +59,8 @@ keyed with the study secret so that returns can be matched and tampering detecte
 			}
 			c := s.Config
 			set := cmd.Flags().Changed
-			if !set("raters") {
+			f.ratersSet = set("raters")
+			if !f.ratersSet {
 				f.raters = strings.Join(c.Panel.Raters, ",")
 			}
 			if !set("seed") {
@@ -101,14 +112,26 @@ func parseRaters(s string) ([]string, error) {
 }
 
 func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags) error {
-	raters, err := parseRaters(f.raters)
-	if err != nil {
-		return usageError{err}
-	}
 	drawPath := s.Path(study.DrawDir, draw.DrawFile)
 	rows, err := draw.ReadRows(drawPath)
 	if err != nil {
 		return fmt.Errorf("no draw yet (run quorate draw first): %w", err)
+	}
+	// Packets already out and no --replace: a later phase of the draw gets packets of its own.
+	manPath := s.Path(study.PacketsDir, packet.ManifestFile)
+	var phase int
+	if _, err := os.Stat(manPath); err == nil && !f.replace {
+		var panel []string
+		if rows, phase, panel, err = laterPhase(s, rows); err != nil {
+			return err
+		}
+		if !f.ratersSet {
+			f.raters = strings.Join(panel, ",")
+		}
+	}
+	raters, err := parseRaters(f.raters)
+	if err != nil {
+		return usageError{err}
 	}
 	indexPath := s.Path(study.IndexDir, archive.IndexFile)
 	recs, err := readIndex(s)
@@ -131,15 +154,18 @@ func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags
 	// The page opens with study.yaml's montage and filters; raters may change them.
 	filters := packet.Filters{LowHz: c.Signal.Bandpass[0], HighHz: c.Signal.Bandpass[1], NotchHz: c.Signal.NotchHz}
 	res, err := packet.Run(ctx, packet.Options{Items: items, StudyID: c.Study.ID, Secret: secret, Raters: raters,
-		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir),
+		DuplicateShare: f.duplicate, Seed: f.seed, Replace: f.replace, OutDir: s.Path(study.PacketsDir), Phase: phase,
 		Montages: packet.FirstMontage(packet.DefaultMontages(items[0].Electrodes), c.Signal.Montage), Filters: &filters})
 	if err != nil {
 		return err
 	}
 	seed := f.seed
+	notes := map[string]any{"raters": raters, "events": len(items), "items_per_packet": len(res.Manifest.Packets[len(res.Manifest.Packets)-1].Items)}
+	if phase >= 2 {
+		notes["phase"], notes["packets_in_all"] = phase, len(res.Manifest.Packets)
+	}
 	if err := s.Record(study.Entry{Version: Version, Command: "packets", Argv: g.argv, Seed: &seed,
-		Inputs: s.Hash(drawPath, indexPath), Outputs: s.Hash(s.Path(study.PacketsDir)),
-		Notes: map[string]any{"raters": raters, "events": len(items), "items_per_packet": len(res.Manifest.Packets[0].Items)}}); err != nil {
+		Inputs: s.Hash(drawPath, indexPath), Outputs: s.Hash(s.Path(study.PacketsDir)), Notes: notes}); err != nil {
 		return err
 	}
 	// The same three counts as status prints: events, items (showings) and hidden duplicates.
@@ -152,11 +178,76 @@ func runPackets(ctx context.Context, g *globals, s *study.Study, f *packetsFlags
 		}
 		perPacket[k.Packet] = c
 	}
-	fmt.Fprintf(g.stdout, "Built %d packets of %d events, %d items in all (hidden duplicates included):\n", len(res.Packets), len(items), len(res.Key))
+	if phase >= 2 {
+		fmt.Fprintf(g.stdout, "Added %d packets for the %d events of draw phase %d that no packet showed, %d items in all (hidden duplicates included);\n"+
+			"the %d earlier packets and their answers are kept (%d packets in all):\n",
+			len(res.Packets), len(items), phase, len(res.Key), len(res.Manifest.Packets)-len(res.Packets), len(res.Manifest.Packets))
+	} else {
+		fmt.Fprintf(g.stdout, "Built %d packets of %d events, %d items in all (hidden duplicates included):\n", len(res.Packets), len(items), len(res.Key))
+	}
 	for _, p := range res.Packets {
 		c := perPacket[p.Packet]
 		fmt.Fprintf(g.stdout, "  %-16s %d items (%d hidden duplicates): %s (%.1f MB) and %s\n", p.Rater, c[0], c[1], p.Page, float64(p.PageBytes)/1e6, p.Sheet)
 	}
-	fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, packet.KeyFile))
+	if phase >= 2 {
+		fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their %s folder (the new events only).\n",
+			s.Path(study.PacketsDir, packet.KeyFile), packet.PhaseDir(phase))
+	} else {
+		fmt.Fprintf(g.stdout, "Keep %s and manifest.json to yourself; send each rater their folder.\n", s.Path(study.PacketsDir, packet.KeyFile))
+	}
 	return g.finish(len(warns))
+}
+
+// laterPhase returns the draw rows no packet shows yet and the draw phase they
+// belong to, when they are a later phase than every row the packets show: the
+// events a draw --top-up added. It refuses when there are none, when the packets
+// show events the draw no longer holds (the draw was replaced), or when the new
+// rows are not of a later phase. panel is the raters of the existing packets, who
+// rate a later phase unless --raters names others (which Extend refuses).
+func laterPhase(s *study.Study, rows []draw.Row) (fresh []draw.Row, phase int, panel []string, err error) {
+	manPath, keyPath := s.Path(study.PacketsDir, packet.ManifestFile), s.Path(study.PacketsDir, packet.KeyFile)
+	m, err := packet.ReadManifest(manPath)
+	if err != nil {
+		return nil, 0, nil, err
+	}
+	key, err := packet.ReadKey(keyPath)
+	if err != nil {
+		return nil, 0, nil, err
+	}
+	covered := packet.Covered(m, key)
+	inDraw := make(map[string]bool, len(rows))
+	lastCovered := int32(0)
+	for _, r := range rows {
+		inDraw[r.EventID] = true
+		if covered[r.EventID] {
+			lastCovered = max(lastCovered, r.Phase)
+		} else {
+			fresh = append(fresh, r)
+		}
+	}
+	gone := 0
+	for id := range covered {
+		if !inDraw[id] {
+			gone++
+		}
+	}
+	if gone > 0 {
+		return nil, 0, nil, fmt.Errorf("the packets in %s show %d event(s) that %s no longer holds (was the draw replaced?); "+
+			"run quorate packets --replace to rebuild every packet (the old ones are kept beside the new, but their answers will not count)",
+			s.Path(study.PacketsDir), gone, s.Path(study.DrawDir, draw.DrawFile))
+	}
+	if len(fresh) == 0 {
+		return nil, 0, nil, fmt.Errorf("%s already exists and its %d packets show every event of the draw; "+
+			"to add events run quorate draw --top-up N first, or add --replace to rebuild every packet", manPath, len(m.Packets))
+	}
+	last := int32(0)
+	for _, r := range fresh {
+		if r.Phase <= lastCovered {
+			return nil, 0, nil, fmt.Errorf("%s holds %d event(s) no packet shows, among them %s of phase %d, but the packets already show phase %d: "+
+				"only a later phase (quorate draw --top-up N) gets packets of its own; add --replace to rebuild every packet",
+				s.Path(study.DrawDir, draw.DrawFile), len(fresh), r.EventID, r.Phase, lastCovered)
+		}
+		last = max(last, r.Phase)
+	}
+	return fresh, int(last), m.Raters(), nil
 }

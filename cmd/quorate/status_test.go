@@ -127,7 +127,7 @@ func TestStatusCountsOwedAndRefused(t *testing.T) {
 		}
 	}
 	for _, p := range []packet.ManifestEntry{p1, p2} {
-		if !regexp.MustCompile(`(?m)^` + regexp.QuoteMeta(p.Packet) + `\s+` + regexp.QuoteMeta(p.Rater) + `\s+out\s`).MatchString(out) {
+		if !regexp.MustCompile(`(?m)^` + regexp.QuoteMeta(p.Packet) + `\s+` + regexp.QuoteMeta(p.Rater) + `\s+1\s+out\s`).MatchString(out) {
 			t.Errorf("packet %s (refused or blank return) not listed as out:\n%s", p.Packet, out)
 		}
 	}

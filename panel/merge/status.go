@@ -14,6 +14,7 @@ import (
 type PacketStatus struct {
 	Packet     string   `json:"packet"`
 	Rater      string   `json:"rater"`
+	Phase      int      `json:"phase"` // the draw phase it shows: 1, or packet.ManifestEntry.Phase
 	State      string   `json:"state"` // out, partly returned, returned
 	Items      int      `json:"items"`
 	Owes       int      `json:"owes"`       // items with no counted answer
@@ -68,7 +69,7 @@ func GetStatus(m *packet.Manifest, key []packet.KeyRow, returnsDir, consensusDir
 		}
 	}
 	for _, p := range m.Packets {
-		ps := PacketStatus{Packet: p.Packet, Rater: p.Rater, Items: len(p.Items), Returns: len(files[p.Packet]),
+		ps := PacketStatus{Packet: p.Packet, Rater: p.Rater, Phase: max(p.Phase, 1), Items: len(p.Items), Returns: len(files[p.Packet]),
 			OwedItems: []string{}, Incomplete: []string{}}
 		for h := range files[p.Packet] {
 			if !now[h] {

@@ -30,8 +30,12 @@ type Written struct {
 	PageBytes     int64
 }
 
-// Run is the packets stage's entry point: Build(ctx, o.Items, o).
+// Run is the packets stage's entry point: Build(ctx, o.Items, o), or
+// Extend(ctx, o.Items, o) when o.Phase is 2 or more.
 func Run(ctx context.Context, o Options) (*Result, error) {
+	if o.Phase >= 2 {
+		return Extend(ctx, o.Items, o)
+	}
 	return Build(ctx, o.Items, o)
 }
 
@@ -51,6 +55,49 @@ func Build(ctx context.Context, items []Item, opt Options) (*Result, error) {
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
+	enc, pm, eventIDs, err := encodeItems(ctx, items, opt)
+	if err != nil {
+		return nil, err
+	}
+
+	// Earlier outputs are moved aside only once the items are encoded, so a
+	// stop during encoding leaves them where they were.
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	if err := prepareOut(opt); err != nil {
+		return nil, err
+	}
+	out := &Result{Manifest: Manifest{Format: ManifestFormat, Version: 1, Study: opt.StudyID}}
+	for r, rater := range opt.Raters {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		pid := PacketID(opt.Secret, opt.StudyID, rater, opt.Seed, eventIDs)
+		// One stream per rater, so adding a rater leaves the others' orders alone.
+		rng := rand.New(rand.NewPCG(opt.Seed, uint64(r)+1))
+		// Codes are unique within a packet.
+		err := buildPacket(out, opt, rater, pid, items, enc, pm, filepath.Join(opt.OutDir, rater), rng, map[string]bool{}, 0)
+		if err != nil {
+			return nil, err
+		}
+	}
+	if err := writeKey(filepath.Join(opt.OutDir, KeyFile), out.Key); err != nil {
+		return nil, err
+	}
+	mb, err := json.MarshalIndent(out.Manifest, "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	if err := atomicfile.WriteBytes(filepath.Join(opt.OutDir, ManifestFile), append(mb, '\n'), 0o644); err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+// encodeItems packs the traces and maps (the same for every rater) and the
+// montages of the page.
+func encodeItems(ctx context.Context, items []Item, opt Options) ([]pageItem, []pageMontage, []string, error) {
 	montages := opt.Montages
 	if montages == nil {
 		montages = DefaultMontages(items[0].Electrodes)
@@ -61,7 +108,7 @@ func Build(ctx context.Context, items []Item, opt Options) (*Result, error) {
 	eventIDs := make([]string, len(items))
 	for i, it := range items {
 		if err := ctx.Err(); err != nil {
-			return nil, err
+			return nil, nil, nil, err
 		}
 		eventIDs[i] = it.EventID
 		t := encodeTraces(it.Samples, res)
@@ -91,83 +138,61 @@ func Build(ctx context.Context, items []Item, opt Options) (*Result, error) {
 		}
 	}
 
-	// Earlier outputs are moved aside only once the items are encoded, so a
-	// stop during encoding leaves them where they were.
-	if err := ctx.Err(); err != nil {
-		return nil, err
+	return enc, pm, eventIDs, nil
+}
+
+// buildPacket writes one rater's packet (review.html and sheet.csv in dir)
+// and adds its key rows, manifest entry and Written record to out. Codes
+// already in seen are stepped past, and the new codes are added to seen.
+func buildPacket(out *Result, opt Options, rater, pid string, items []Item, enc []pageItem, pm []pageMontage,
+	dir string, rng *rand.Rand, seen map[string]bool, phase int) error {
+	order := drawOrder(len(items), opt.duplicateShare(), rng)
+	codes := make([]string, len(order))
+	d := pageData{
+		Format: PageFormat, Version: 1, Study: opt.StudyID, Packet: pid, Rater: rater,
+		Sensitivity: orDefault(opt.Sensitivity, DefaultSensitivity),
+		TimeBase:    orDefault(opt.TimeBase, DefaultTimeBase),
+		Electrodes:  items[0].Electrodes, Montages: pm, Events: len(items),
 	}
-	if err := prepareOut(opt); err != nil {
-		return nil, err
-	}
-	out := &Result{Manifest: Manifest{Format: ManifestFormat, Version: 1, Study: opt.StudyID}}
-	share := opt.duplicateShare()
-	for r, rater := range opt.Raters {
-		if err := ctx.Err(); err != nil {
-			return nil, err
-		}
-		pid := PacketID(opt.Secret, opt.StudyID, rater, opt.Seed, eventIDs)
-		// One stream per rater, so adding a rater leaves the others' orders alone.
-		rng := rand.New(rand.NewPCG(opt.Seed, uint64(r)+1))
-		order := drawOrder(len(items), share, rng)
-		codes := make([]string, len(order))
-		seen := make(map[string]bool, len(order))
-		d := pageData{
-			Format: PageFormat, Version: 1, Study: opt.StudyID, Packet: pid, Rater: rater,
-			Sensitivity: orDefault(opt.Sensitivity, DefaultSensitivity),
-			TimeBase:    orDefault(opt.TimeBase, DefaultTimeBase),
-			Electrodes:  items[0].Electrodes, Montages: pm, Events: len(items),
-		}
-		f := opt.filters()
-		d.Filters = pageFilters{f.LowHz, f.HighHz, f.NotchHz}
-		for k, s := range order {
-			var c string
-			for attempt := 0; ; attempt++ {
-				c = ItemCode(opt.Secret, pid, items[s.item].EventID, s.copy, attempt)
-				if !seen[c] {
-					break
-				}
+	f := opt.filters()
+	d.Filters = pageFilters{f.LowHz, f.HighHz, f.NotchHz}
+	for k, s := range order {
+		var c string
+		for attempt := 0; ; attempt++ {
+			c = ItemCode(opt.Secret, pid, items[s.item].EventID, s.copy, attempt)
+			if !seen[c] {
+				break
 			}
-			seen[c] = true
-			codes[k] = c
-			pi := enc[s.item]
-			pi.Code = c
-			d.Items = append(d.Items, pi)
-			out.Key = append(out.Key, KeyRow{
-				Packet: pid, Rater: rater, Item: c, EventID: items[s.item].EventID,
-				Duplicate: s.copy == 1, Position: int32(k + 1), Source: sourceJSON(items[s.item].Source),
-			})
 		}
-		check := CheckValue(opt.Secret, opt.StudyID, pid, rater, codes)
-		d.Check = check
-		html, err := page(&d)
-		if err != nil {
-			return nil, err
-		}
-		dir := filepath.Join(opt.OutDir, rater)
-		if err := os.MkdirAll(dir, 0o755); err != nil {
-			return nil, err
-		}
-		w := Written{Rater: rater, Packet: pid, Dir: dir, Page: filepath.Join(dir, PageFile), Sheet: filepath.Join(dir, SheetFile), PageBytes: int64(len(html))}
-		if err := atomicfile.WriteBytes(w.Page, html, 0o644); err != nil {
-			return nil, err
-		}
-		if err := atomicfile.WriteBytes(w.Sheet, sheet(pid, check, rater, codes), 0o644); err != nil {
-			return nil, err
-		}
-		out.Packets = append(out.Packets, w)
-		out.Manifest.Packets = append(out.Manifest.Packets, ManifestEntry{Packet: pid, Rater: rater, Check: check, Items: codes})
+		seen[c] = true
+		codes[k] = c
+		pi := enc[s.item]
+		pi.Code = c
+		d.Items = append(d.Items, pi)
+		out.Key = append(out.Key, KeyRow{
+			Packet: pid, Rater: rater, Item: c, EventID: items[s.item].EventID,
+			Duplicate: s.copy == 1, Position: int32(k + 1), Source: sourceJSON(items[s.item].Source),
+		})
 	}
-	if err := writeKey(filepath.Join(opt.OutDir, KeyFile), out.Key); err != nil {
-		return nil, err
-	}
-	mb, err := json.MarshalIndent(out.Manifest, "", "  ")
+	check := CheckValue(opt.Secret, opt.StudyID, pid, rater, codes)
+	d.Check = check
+	html, err := page(&d)
 	if err != nil {
-		return nil, err
+		return err
 	}
-	if err := atomicfile.WriteBytes(filepath.Join(opt.OutDir, ManifestFile), append(mb, '\n'), 0o644); err != nil {
-		return nil, err
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
 	}
-	return out, nil
+	w := Written{Rater: rater, Packet: pid, Dir: dir, Page: filepath.Join(dir, PageFile), Sheet: filepath.Join(dir, SheetFile), PageBytes: int64(len(html))}
+	if err := atomicfile.WriteBytes(w.Page, html, 0o644); err != nil {
+		return err
+	}
+	if err := atomicfile.WriteBytes(w.Sheet, sheet(pid, check, rater, codes), 0o644); err != nil {
+		return err
+	}
+	out.Packets = append(out.Packets, w)
+	out.Manifest.Packets = append(out.Manifest.Packets, ManifestEntry{Packet: pid, Rater: rater, Check: check, Items: codes, Phase: phase})
+	return nil
 }
 
 // prepareOut refuses, or with Replace moves aside, every output that exists.

@@ -21,6 +21,9 @@ type ManifestEntry struct {
 	Rater  string   `json:"rater"`
 	Check  string   `json:"check"`
 	Items  []string `json:"items"` // codes in the rater's order
+	// Phase is the draw phase (2, 3, …) of a packet Extend added for the
+	// events a top-up drew; 0 (left out of the file) for the first build.
+	Phase int `json:"phase,omitempty"`
 }
 
 // ManifestFormat is the format tag of a manifest file.

@@ -37,6 +37,10 @@ type Options struct {
 	Replace bool
 	// OutDir is the packets folder.
 	OutDir string
+	// Phase is the draw phase the items belong to. 0 or 1: the first build
+	// (Build). 2 or more: a later phase added to the packets in OutDir
+	// (Extend), each rater's new packet in OutDir/<rater>/phase-<Phase>/.
+	Phase int
 }
 
 const (
