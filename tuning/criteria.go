@@ -12,8 +12,12 @@ import (
 // the panel majority for that criterion, over the events with both a
 // majority decision and a measured feature.
 //
-// The direction is +1 when higher values mean "present" and −1 when lower
-// ones do: it is the direction whose design-weighted AUC is at least ½. The
+// The direction is always +1: every feature is defined so that a higher
+// value means the criterion is more clearly present (sampling/detect decides
+// "met" at or above its cutoff), and a rule that counted a criterion as met
+// when its feature is low would say the opposite of the criterion. A
+// feature whose design-weighted AUC against its label is below ½ keeps that
+// direction, its AUC is reported as it is, and fitting warns. The
 // cutoff is the threshold maximising design-weighted Youden's J (Youden 1950,
 // Cancer 3:32–35) whatever the study's policy, because a criterion cutoff is
 // a building block of a rule, not an operating point: the policy is applied
@@ -39,6 +43,7 @@ type criterionFit struct {
 	cut     float64 // in direction-adjusted units: met when dir·x ≥ cut
 	ok      bool
 	skip    string
+	against string    // a warning when the feature runs against its label, or ""
 	th      []float64 // direction-adjusted thresholds
 	plain   []accuracy.Confusion
 	weighed []accuracy.Confusion
@@ -100,12 +105,14 @@ func fitFeature(s *evset, j int, withPlain, byVerdict bool) criterionFit {
 	}
 	f := criterionFit{dir: 1, ok: true}
 	f.th, f.weighed = accuracy.Counts(x, t, w)
-	if countsAUC(f.weighed) < 0.5 {
-		f.dir = -1
-		for i := range x {
-			x[i] = -x[i]
+	if a := countsAUC(f.weighed); a < 0.5 {
+		// Never flipped: see CriterionROC.
+		label := fmt.Sprintf("panel majority for c%d", j+1)
+		if byVerdict {
+			label = "panel verdict"
 		}
-		f.th, f.weighed = accuracy.Counts(x, t, w)
+		f.against = fmt.Sprintf("c%d: %s runs against the %s (design-weighted AUC %.2f < 0.5); it keeps its defined direction (higher = met), so it rarely helps the rule",
+			j+1, name, label, a)
 	}
 	if withPlain {
 		_, f.plain = accuracy.Counts(x, t, nil)

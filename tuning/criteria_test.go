@@ -63,14 +63,19 @@ func TestCriterionAUCAgainstScipy(t *testing.T) {
 	if r.AtCutoff.Weighted.Youden() != best {
 		t.Errorf("cutoff J %v, best on curve %v", r.AtCutoff.Weighted.Youden(), best)
 	}
-	// Reversing the feature flips the direction, not the AUC.
+	if f := fitCriterion(s, 1, false); f.against != "" {
+		t.Errorf("a feature with AUC %.2f warned: %s", ref.AUC, f.against)
+	}
+	// Reversing the feature keeps its defined direction (higher = met) and
+	// reports AUC 1 − AUC (Mann & Whitney 1947: U + U' = mn),
+	// with a warning: a criterion is never counted as met for a low value.
 	for i := range ev {
 		ev[i].Features[1] = -ev[i].Features[1]
 	}
 	s, _, _ = prepare(&o)
-	r2, _ := criterionROC(s, 1, 0.95)
-	if r2.Direction != -1 || math.Abs(r2.AUC.Value-ref.AUC) > 1e-12 || r2.Cutoff != -r.Cutoff {
-		t.Errorf("reversed: direction %d, AUC %v, cutoff %v (was %v)", r2.Direction, r2.AUC.Value, r2.Cutoff, r.Cutoff)
+	r2, f2 := criterionROC(s, 1, 0.95)
+	if r2.Direction != 1 || math.Abs(r2.AUC.Value-(1-ref.AUC)) > 1e-12 || f2.against == "" {
+		t.Errorf("reversed: direction %d, AUC %v (want %v), warning %q", r2.Direction, r2.AUC.Value, 1-ref.AUC, f2.against)
 	}
 }
 

@@ -55,8 +55,8 @@ func fitRule(s *evset, method string, p accuracy.Policy) (*autoFit, []string, er
 // (README, performance).
 var criterionTargets = [...]float64{0, 0.50, 0.60, 0.70, 0.80, 0.85, 0.90, 0.95, -0.50, -0.60, -0.70, -0.80, -0.85, -0.90, -0.95}
 
-// fitMajority fits each criterion by fitFeature (direction by weighted
-// AUC ≥ ½, against the criterion's panel majority, or with byVerdict
+// fitMajority fits each criterion by fitFeature (higher = met, against
+// the criterion's panel majority, or with byVerdict
 // against the reference standard), reads every criterion's cutoff off its
 // curve at each of the criterionTargets, places the cutoffs in the gap
 // between adjacent observed values (placeCuts), and lets the policy pick
@@ -67,15 +67,10 @@ var criterionTargets = [...]float64{0, 0.50, 0.60, 0.70, 0.80, 0.85, 0.90, 0.95,
 //
 // byVerdict is MethodVerdict. Each cutoff is still fitted on one feature
 // alone (a univariate ROC), so the free choices against the verdict are
-// the same two, the shared target and k; what changes is the label. On the
-// demo's design seeds 101–125 the best of the 90 rules fitted against the
-// criterion majorities (judged by the generator's truth, at true
-// specificity ≥ 0.95) reached a mean true sensitivity of 0.567, against
-// 0.661 for the 90 fitted against the verdict, and the policy's choice
-// reached 0.583 and 0.693: a criterion's majority and the verdict disagree
-// often enough that a cutoff reproducing the majority is not the cutoff
-// that separates IEDs. The family's ceiling with cutoffs read off the
-// truth itself is about 0.67 (README, performance).
+// the same two, the shared target and k; what changes is the label: a
+// criterion's majority and the verdict disagree often enough that a cutoff
+// reproducing the majority is not the cutoff that separates IEDs (the
+// figures on the demo's design seeds are in the README, operating point).
 func fitMajority(s *evset, p accuracy.Policy, byVerdict bool) (*autoFit, []string, error) {
 	var warn []string
 	var fits [6]criterionFit
@@ -85,6 +80,9 @@ func fitMajority(s *evset, p accuracy.Policy, byVerdict bool) (*autoFit, []strin
 		if !fits[j].ok {
 			warn = append(warn, fmt.Sprintf("c%d: %s; left out of the automatic rule", j+1, fits[j].skip))
 			continue
+		}
+		if fits[j].against != "" {
+			warn = append(warn, fits[j].against)
 		}
 		active[j] = true
 	}
