@@ -27,8 +27,9 @@
 // labelled so.
 //
 // The automatic rule "at least k criteria met at these cutoffs" is fitted
-// with each cutoff read off its feature's ROC against the panel's IED
-// verdict (MethodVerdict, the default), against its criterion's own panel
-// majority (MethodCriterion), or by the joint search (MethodJoint); the
-// report shows the joint search's honest figures beside the default's.
+// with each cutoff fitted to its criterion's own panel majority
+// (MethodCriterion, the default), read off its feature's ROC against the
+// panel's IED verdict (MethodVerdict), or by the joint search
+// (MethodJoint); the report shows the joint search's honest figures beside
+// the default's.
 package tuning

@@ -38,16 +38,16 @@ type Options struct {
 	// estimators the headline was compared with (Headline.Variants); for
 	// the coverage study's design work.
 	HeadlineVariants bool
-	// Method fits the automatic rule: MethodVerdict (the default, for ""),
-	// MethodCriterion or MethodJoint. MethodVerdict is the default because
-	// it keeps MethodCriterion's two free choices (one shared ROC point and
-	// k), whose headline holds on new recordings, while its cutoffs separate
-	// IEDs rather than reproduce each criterion's majority: on the demo's
-	// design seeds 101–125 its chosen rules' mean true sensitivity was
-	// 0.693 against 0.583 (true specificity 0.954 both), with headline
-	// bias −0.013 (sensitivity) and +0.002 (specificity). The joint search
-	// chooses among many more rules; the report shows it beside the
-	// default (README, performance).
+	// Method fits the automatic rule: MethodCriterion (the default, for
+	// ""), MethodVerdict or MethodJoint. MethodCriterion is the default
+	// because each criterion's cutoff is then fitted to that criterion's
+	// own label, the panel majority, with two free choices left against
+	// the verdict (one shared ROC point and k), and its headline held best:
+	// with every feature in its defined direction, on the demo's design
+	// seeds 101–125 its chosen rules' mean true sensitivity was 0.600
+	// against 0.603 for MethodVerdict and 0.730 for MethodJoint, whose
+	// headline held the true specificity in only 22 of 25 (README,
+	// performance). The report shows the joint search beside the default.
 	Method        string
 	Seed          uint64  // seeds folds and bootstrap
 	Level         float64 // two-sided confidence level; 0 means 0.95

@@ -33,12 +33,12 @@ func fitRule(s *evset, method string, p accuracy.Policy) (*autoFit, []string, er
 	switch method {
 	case MethodJoint:
 		return fitAuto(s, p)
-	case MethodCriterion:
+	case MethodCriterion, "":
 		return fitMajority(s, p, false)
-	case MethodVerdict, "":
+	case MethodVerdict:
 		return fitMajority(s, p, true)
 	}
-	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want %q, %q or %q, got %q", MethodVerdict, MethodCriterion, MethodJoint, method)}
+	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want %q, %q or %q, got %q", MethodCriterion, MethodVerdict, MethodJoint, method)}
 }
 
 // criterionTargets are the stated ways a criterion's cutoff is read off its

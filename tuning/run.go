@@ -102,7 +102,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 
 	method := o.Method
 	if method == "" {
-		method = MethodVerdict
+		method = MethodCriterion
 	}
 	f, fw, err := fitRule(s, method, o.Policy)
 	for _, w := range fw {
@@ -151,7 +151,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		// The other fitting method, side by side with its own honest figures.
 		other := MethodJoint
 		if method == MethodJoint {
-			other = MethodVerdict
+			other = MethodCriterion
 		}
 		if g, _, err := fitRule(s, other, o.Policy); g != nil {
 			_ = err // a policy no rule meets still shows the nearest rule
