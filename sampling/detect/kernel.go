@@ -28,10 +28,15 @@ func newHat(h int) hat {
 func (k hat) outer() int { return 3*k.h + 1 }
 
 // runningSum sets cum[i] to the sum of x[:i], for i = 0 … len(x).
+// The sum is carried in a register rather than read back from cum, which
+// would put a store-to-load forwarding on every step of the chain.
 func runningSum(cum []float64, x []float32) {
+	cum = cum[:len(x)+1]
+	var s float64
 	cum[0] = 0
 	for i, v := range x {
-		cum[i+1] = cum[i] + float64(v)
+		s += float64(v)
+		cum[i+1] = s
 	}
 }
 
