@@ -355,7 +355,7 @@ func (e *engine) find(w window, ws, we int64) []cluster {
 	for d, x := range e.det {
 		e.bank.prepare(x, bstart, bend, block, h)
 		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
-		zAt := func(i int, sign float64) float64 { return e.bank.z(i, sign, bstart, block) }
+		zAt := func(i int, sign float64) float64 { return e.bank.zAbove(i, sign, bstart, block, e.s.thr) }
 		e.dets = findChannel(e.dets, d, x, from, to, e.rate, e.s.thr, at, zAt)
 	}
 	out := complexes(merge(e.dets, tol), before, after, complexFrac, e.rate)

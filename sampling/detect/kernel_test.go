@@ -118,3 +118,43 @@ func TestComplexes(t *testing.T) {
 		t.Fatalf("kept %v, want %v", peaks, want)
 	}
 }
+
+// TestZAboveMatchesZ checks zAbove against z on a random trace: wherever z
+// reaches the threshold zAbove returns the same value bit for bit, and
+// elsewhere a value below it, for thresholds that many and few extrema
+// reach, so that both paths are taken.
+func TestZAboveMatchesZ(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	const fs, n = 256, 256 * 20
+	x := make([]float32, n)
+	for i := range x {
+		x[i] = float32(rng.NormFloat64())
+		if i%500 == 0 {
+			x[i] += 12 // spikes for the high threshold
+		}
+	}
+	var b bank
+	b.hats = hatsFor(fs)
+	b.prepare(x, 0, n, fs, 5)
+	for _, thr := range []float64{0.5, 2, 4} {
+		above, below := 0, 0
+		for i := 1; i < n-1; i++ {
+			for _, sign := range []float64{-1, 1} {
+				z, za := b.z(i, sign, 0, fs), b.zAbove(i, sign, 0, fs, thr)
+				switch {
+				case z >= thr && za != z:
+					t.Fatalf("thr %g i %d sign %g: zAbove %v, z %v", thr, i, sign, za, z)
+				case z >= thr:
+					above++
+				case !(za < thr):
+					t.Fatalf("thr %g i %d sign %g: zAbove %v ≥ thr, z %v", thr, i, sign, za, z)
+				default:
+					below++
+				}
+			}
+		}
+		if above == 0 || below == 0 {
+			t.Errorf("thr %g: %d above, %d below; both paths should be taken", thr, above, below)
+		}
+	}
+}

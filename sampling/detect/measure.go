@@ -141,7 +141,8 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 				best, found, passes = cand, true, pass
 			}
 		}
-		dets = findChannel(dets, d, x, max(int(ws-w.base)-tol, w.lo), min(int(we-w.base)+tol, w.hi), fs, e.s.thr, at, zAt)
+		zAbove := func(i int, sign float64) float64 { return e.bank.zAbove(i, sign, bstart, block, e.s.thr) }
+		dets = findChannel(dets, d, x, max(int(ws-w.base)-tol, w.lo), min(int(we-w.base)+tol, w.hi), fs, e.s.thr, at, zAbove)
 	}
 	if !found {
 		e.warn("onset %s: no peak within ±100 ms", formatS(t))
