@@ -175,15 +175,38 @@ func (bc *blockCov) build(xs [][]float32, lo, hi int, base int64, fs float64) {
 			}
 		}
 		mom := bc.mom[b*stride : (b+1)*stride]
-		Z := mat.NewDense(per, n, bc.z[:per*n])
 		for k := range per {
 			for c := range n {
 				mom[c] += bc.z[k*n+c]
 			}
 		}
-		S := mat.NewSymDense(n, mom[n:])
-		S.SymRankK(S, 1, Z.T())
+		rankK(mom[n:n+n*n], bc.z[:per*n], n)
 		bc.cnt[b] = per
+	}
+}
+
+// rankK adds to the upper triangle of the n×n row-major s the products
+// zᵀz of the rows of z (k×n, row-major): s_ij += Σ_l z_li·z_lj, i ≤ j. It
+// is BLAS dsyrk (upper, transposed; Dongarra et al. 1990, "A set of level 3
+// basic linear algebra subprograms", ACM Trans Math Softw 16:1–17) with
+// the accumulation order of gonum's: each s_ij gains its terms in
+// increasing l, rows whose z_li is zero skipped, every product rounded
+// before it is added (no fused multiply–add), so the sums are the same bit
+// for bit; one loop here rather than a call per row and term.
+func rankK(s, z []float64, n int) {
+	for l := 0; l+n <= len(z); l += n {
+		zl := z[l : l+n]
+		for i, a := range zl {
+			if a == 0 {
+				continue
+			}
+			row := s[i*n+i : i*n+n]
+			zr := zl[i:]
+			zr = zr[:len(row)]
+			for j := range row {
+				row[j] += float64(a * zr[j])
+			}
+		}
 	}
 }
 
