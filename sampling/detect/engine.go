@@ -189,7 +189,8 @@ func (e *engine) condition(cs, ce, qs, qe int64) (window, bool, error) {
 		x := e.raw[c]
 		nonFinite := 0
 		for i, v := range x {
-			if math.IsNaN(float64(v)) || math.IsInf(float64(v), 0) {
+			// v − v is 0 for every finite v and NaN for NaN and ±Inf
+			if d := v - v; d != d {
 				x[i] = 0
 				nonFinite++
 			}

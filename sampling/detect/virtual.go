@@ -165,13 +165,15 @@ func (bc *blockCov) build(xs [][]float32, lo, hi int, base int64, fs float64) {
 			for j := s0 - h; j <= s0+h; j++ {
 				m += float64(x[j])
 			}
+			// every vcStride-th sample, the moving mean advanced over
+			// the others without a test per sample
 			k := 0
-			for s := s0; s < s0+bc.size; s++ {
-				if (s-s0)%vcStride == 0 {
-					bc.z[k*n+c] = float64(x[s]) - m*inv
-					k++
+			for s := s0; s < s0+bc.size; s += vcStride {
+				bc.z[k*n+c] = float64(x[s]) - m*inv
+				k++
+				for t := s; t < min(s+vcStride, s0+bc.size); t++ {
+					m += float64(x[t+h+1]) - float64(x[t-h])
 				}
-				m += float64(x[s+h+1]) - float64(x[s-h])
 			}
 		}
 		mom := bc.mom[b*stride : (b+1)*stride]
