@@ -195,8 +195,35 @@ func (bc *blockCov) build(xs [][]float32, lo, hi int, base int64, fs float64) {
 // increasing l, rows whose z_li is zero skipped, every product rounded
 // before it is added (no fused multiply–add), so the sums are the same bit
 // for bit; one loop here rather than a call per row and term.
+//
+// Rows are taken two at a time, each sum gaining the first row's term and
+// then the second's in one pass over s.
 func rankK(s, z []float64, n int) {
-	for l := 0; l+n <= len(z); l += n {
+	l := 0
+	for ; l+2*n <= len(z); l += 2 * n {
+		zl, zm := z[l:l+n], z[l+n:l+2*n]
+		for i, a := range zl {
+			c := zm[i]
+			row := s[i*n+i : i*n+n]
+			zr, zq := zl[i:], zm[i:]
+			zr, zq = zr[:len(row)], zq[:len(row)]
+			switch {
+			case a != 0 && c != 0:
+				for j := range row {
+					row[j] = row[j] + float64(a*zr[j]) + float64(c*zq[j])
+				}
+			case a != 0:
+				for j := range row {
+					row[j] += float64(a * zr[j])
+				}
+			case c != 0:
+				for j := range row {
+					row[j] += float64(c * zq[j])
+				}
+			}
+		}
+	}
+	for ; l+n <= len(z); l += n {
 		zl := z[l : l+n]
 		for i, a := range zl {
 			if a == 0 {
