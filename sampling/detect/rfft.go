@@ -67,12 +67,34 @@ func (r *rfft) coefficients(dst []complex128, x []float64, k0, k1 int) {
 		z[s], z[s+2] = a+c, a-c
 		z[s+1], z[s+3] = b+d, b-d
 	}
-	for h, step := 4, m/8; h < m; h, step = 2*h, step/2 {
+	// the remaining stages two at a time (spans h and 2h on four values
+	// held in registers: the same operations as two passes, half the
+	// loads and stores), then a last single stage when their number is odd
+	h, step := 4, m/8
+	for ; 2*h < m; h, step = 4*h, step/4 {
+		for s := 0; s < m; s += 4 * h {
+			q0, q1, q2, q3 := z[s:s+h], z[s+h:s+2*h], z[s+2*h:s+3*h], z[s+3*h:s+4*h]
+			for j := range q0 {
+				a, b, c, d := q0[j], q1[j], q2[j], q3[j]
+				w := r.tw[j*step]
+				b = cmul(w, b)
+				a, b = a+b, a-b
+				d = cmul(w, d)
+				c, d = c+d, c-d
+				u, v := r.tw[j*step/2], r.tw[(j+h)*step/2]
+				c = cmul(u, c)
+				a, c = a+c, a-c
+				d = cmul(v, d)
+				b, d = b+d, b-d
+				q0[j], q1[j], q2[j], q3[j] = a, b, c, d
+			}
+		}
+	}
+	if h < m {
 		for s := 0; s < m; s += 2 * h {
 			lo, hi := z[s:s+h], z[s+h:s+2*h]
 			for j := range lo {
-				w := r.tw[j*step]
-				t := complex(real(w)*real(hi[j])-imag(w)*imag(hi[j]), real(w)*imag(hi[j])+imag(w)*real(hi[j]))
+				t := cmul(r.tw[j*step], hi[j])
 				hi[j] = lo[j] - t
 				lo[j] += t
 			}
@@ -88,4 +110,9 @@ func (r *rfft) coefficients(dst []complex128, x []float64, k0, k1 int) {
 		t = complex(imag(t), -real(t))
 		dst[k] = (e + t) * 0.5
 	}
+}
+
+// cmul is w·x written out, as the butterflies compute it.
+func cmul(w, x complex128) complex128 {
+	return complex(real(w)*real(x)-imag(w)*imag(x), real(w)*imag(x)+imag(w)*real(x))
 }
