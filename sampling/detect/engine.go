@@ -356,8 +356,7 @@ func (e *engine) find(w window, ws, we int64) []cluster {
 	for d, x := range e.det {
 		e.bank.prepare(x, bstart, bend, block, h)
 		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
-		zAt := func(i int, sign float64) float64 { return e.bank.zAbove(i, sign, bstart, block, e.s.thr) }
-		e.dets = findChannel(e.dets, d, x, from, to, e.rate, e.s.thr, at, zAt)
+		e.dets = findChannel(e.dets, d, x, from, to, e.rate, e.s.thr, at, &e.bank, bstart, block)
 	}
 	out := complexes(merge(e.dets, tol), before, after, complexFrac, e.rate)
 	k := 0

@@ -161,27 +161,3 @@ func (b *bank) z(i int, sign float64, start, block int) float64 {
 	}
 	return z
 }
-
-// zAbove is z when it may reach thr, and −Inf when it cannot: z ≥ thr
-// needs some hat with sign·response ≥ thr·scale, which is checked first by
-// multiplication, with a margin of 1e-9 for rounding, and without
-// divisions or the maximum's branches; most extrema of the background
-// fail it. Where it passes, z is computed exactly as before, so a caller
-// that keeps only z ≥ thr keeps the same extrema with the same z.
-func (b *bank) zAbove(i int, sign float64, start, block int, thr float64) float64 {
-	if !(thr > 0) {
-		return b.z(i, sign, start, block)
-	}
-	bi := max(i-start, 0) / block
-	t := thr * (1 - 1e-9)
-	may := false
-	for k := range b.hats {
-		sc := b.scale[k]
-		s := sc[min(bi, len(sc)-1)]
-		may = may || sign*float64(b.hats[k].at(b.cum, i)) >= t*s
-	}
-	if !may {
-		return math.Inf(-1)
-	}
-	return b.z(i, sign, start, block)
-}

@@ -119,42 +119,52 @@ func TestComplexes(t *testing.T) {
 	}
 }
 
-// TestZAboveMatchesZ checks zAbove against z on a random trace: wherever z
-// reaches the threshold zAbove returns the same value bit for bit, and
-// elsewhere a value below it, for thresholds that many and few extrema
-// reach, so that both paths are taken.
-func TestZAboveMatchesZ(t *testing.T) {
+// TestFindChannelMatchesExactZ checks findChannel, which rejects most
+// extrema by a multiplication against per-block limits, against the same
+// search computing the exact matched response z at every extremum: the
+// same detections with the same values, on a noisy trace with spikes, for
+// thresholds that many and few extrema reach and blocks cut mid-trace.
+func TestFindChannelMatchesExactZ(t *testing.T) {
 	rng := rand.New(rand.NewPCG(11, 12))
 	const fs, n = 256, 256 * 20
 	x := make([]float32, n)
 	for i := range x {
 		x[i] = float32(rng.NormFloat64())
-		if i%500 == 0 {
-			x[i] += 12 // spikes for the high threshold
+	}
+	for i := 0; i+8 < n; i += 500 {
+		for j := range 8 {
+			x[i+j] += float32(12 * math.Sin(math.Pi*float64(j)/8))
 		}
 	}
 	var b bank
 	b.hats = hatsFor(fs)
-	b.prepare(x, 0, n, fs, 5)
-	for _, thr := range []float64{0.5, 2, 4} {
-		above, below := 0, 0
-		for i := 1; i < n-1; i++ {
-			for _, sign := range []float64{-1, 1} {
-				z, za := b.z(i, sign, 0, fs), b.zAbove(i, sign, 0, fs, thr)
-				switch {
-				case z >= thr && za != z:
-					t.Fatalf("thr %g i %d sign %g: zAbove %v, z %v", thr, i, sign, za, z)
-				case z >= thr:
-					above++
-				case !(za < thr):
-					t.Fatalf("thr %g i %d sign %g: zAbove %v ≥ thr, z %v", thr, i, sign, za, z)
-				default:
-					below++
-				}
+	const start = 100
+	b.prepare(x, start, n, fs, 5)
+	scaleAt := func(int) float64 { return 1 }
+	for _, thr := range []float64{0.5, 2, 5} {
+		got := findChannel(nil, 0, x, 10, n-10, fs, thr, scaleAt, &b, start, fs)
+		var want []detection
+		tested := 0
+		for i := 10; i < n-10; i++ {
+			ok, sign := isExtremum(x, i)
+			if !ok {
+				continue
+			}
+			z := b.z(i, sign, start, fs)
+			if !(z >= thr) {
+				continue
+			}
+			tested++
+			if det, pass := examine(x, 0, i, sign, fs, thr, 1, z); pass {
+				want = append(want, det)
 			}
 		}
-		if above == 0 || below == 0 {
-			t.Errorf("thr %g: %d above, %d below; both paths should be taken", thr, above, below)
+		if tested == 0 {
+			t.Fatalf("thr %g: no extremum reaches it; the test cannot fail", thr)
 		}
+		if !slices.Equal(got, want) {
+			t.Fatalf("thr %g: %d detections, exact z everywhere %d", thr, len(got), len(want))
+		}
+		t.Logf("thr %g: %d extrema reach it, %d detections", thr, tested, len(got))
 	}
 }
