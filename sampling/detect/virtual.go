@@ -167,8 +167,16 @@ func (bc *blockCov) build(xs [][]float32, lo, hi int, base int64, fs float64) {
 			}
 			// every vcStride-th sample, the moving mean advanced over
 			// the others without a test per sample
-			k := 0
-			for s := s0; s < s0+bc.size; s += vcStride {
+			k, s := 0, s0
+			if vcStride == 2 {
+				for ; s+1 < s0+bc.size; s += 2 {
+					bc.z[k*n+c] = float64(x[s]) - m*inv
+					k++
+					m += float64(x[s+h+1]) - float64(x[s-h])
+					m += float64(x[s+h+2]) - float64(x[s+1-h])
+				}
+			}
+			for ; s < s0+bc.size; s += vcStride {
 				bc.z[k*n+c] = float64(x[s]) - m*inv
 				k++
 				for t := s; t < min(s+vcStride, s0+bc.size); t++ {
