@@ -89,11 +89,7 @@ func findChannel(dets []detection, d int, x []float32, from, to int, fs, thr flo
 				}
 			}
 		}
-		may := false
-		for k, l := range lim {
-			may = may || sign*float64(b.hats[k].at(b.cum, i)) >= l
-		}
-		if !may {
+		if !b.mayReach(i, sign, lim) {
 			continue
 		}
 		z := b.z(i, sign, start, block)

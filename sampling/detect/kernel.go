@@ -161,3 +161,29 @@ func (b *bank) z(i int, sign float64, start, block int) float64 {
 	}
 	return z
 }
+
+// mayReach reports whether some hat's response at i, of the given sign,
+// reaches its limit lim[k] (findChannel's rejection test). With the usual
+// four hats and i clear of the trace's ends it reads them in one
+// expression, each response computed exactly as hat.at computes it;
+// otherwise hat by hat.
+func (b *bank) mayReach(i int, sign float64, lim []float64) bool {
+	if len(b.hats) == 4 && len(lim) == 4 {
+		cum := b.cum
+		h0, h1, h2, h3 := b.hats[0], b.hats[1], b.hats[2], b.hats[3]
+		if o := max(h0.outer(), h1.outer(), h2.outer(), h3.outer()); i >= o && i < len(cum)-1-o {
+			r0 := float32((cum[i+h0.h+1]-cum[i-h0.h])*h0.ic - (cum[i+3*h0.h+2]-cum[i-3*h0.h-1])*h0.is)
+			r1 := float32((cum[i+h1.h+1]-cum[i-h1.h])*h1.ic - (cum[i+3*h1.h+2]-cum[i-3*h1.h-1])*h1.is)
+			r2 := float32((cum[i+h2.h+1]-cum[i-h2.h])*h2.ic - (cum[i+3*h2.h+2]-cum[i-3*h2.h-1])*h2.is)
+			r3 := float32((cum[i+h3.h+1]-cum[i-h3.h])*h3.ic - (cum[i+3*h3.h+2]-cum[i-3*h3.h-1])*h3.is)
+			return sign*float64(r0) >= lim[0] || sign*float64(r1) >= lim[1] ||
+				sign*float64(r2) >= lim[2] || sign*float64(r3) >= lim[3]
+		}
+	}
+	for k, l := range lim {
+		if sign*float64(b.hats[k].at(b.cum, i)) >= l {
+			return true
+		}
+	}
+	return false
+}
