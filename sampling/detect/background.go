@@ -23,6 +23,7 @@ func blockStats(x []float32, n int, med, mad []float64, scratch []float32) ([]fl
 // counted from the block's start.
 func blockStatsStride(x []float32, n, stride int, med, mad []float64, scratch []float32) ([]float64, []float64) {
 	med, mad = med[:0], mad[:0]
+	var mid []float32
 	for s := 0; s < len(x); s += n {
 		e := min(s+n, len(x))
 		if e-s < n/2 && len(med) > 0 {
@@ -32,16 +33,35 @@ func blockStatsStride(x []float32, n, stride int, med, mad []float64, scratch []
 			continue
 		}
 		b := scratch[:0]
+		var sum float64
 		for i := s; i < e; i += stride {
 			b = append(b, x[i])
+			sum += float64(x[i])
 		}
 		scratch = b
-		m := median32(b)
-		for i, v := range b {
-			b[i] = float32(math.Abs(float64(v) - m))
+		if cap(mid) < len(b) {
+			mid = make([]float32, len(b))
 		}
+		// the median within half the previous block's MAD of the mean
+		// (the first block's by plain selection), the MAD within ×/÷
+		// nearSpan of halfNormalMedian times the mean absolute deviation
+		// (see bank.prepare)
+		var m float64
+		if len(mad) > 0 {
+			c, r := sum/float64(len(b)), 0.5*mad[len(mad)-1]
+			m = median32Near(b, float32(c-r), float32(c+r), mid)
+		} else {
+			m = median32(b)
+		}
+		sum = 0
+		for i, v := range b {
+			d := float32(math.Abs(float64(v) - m))
+			b[i] = d
+			sum += float64(d)
+		}
+		g := halfNormalMedian * sum / float64(len(b))
 		med = append(med, m)
-		mad = append(mad, median32(b))
+		mad = append(mad, median32Near(b, float32(g/nearSpan), float32(g*nearSpan), mid))
 	}
 	return med, mad
 }
@@ -175,4 +195,58 @@ func selectK(b []float32, k int) float32 {
 		b[j] = v
 	}
 	return b[k]
+}
+
+// median32Near is median32 for a b whose median probably lies in [lo, hi],
+// a bracket guessed from a neighbouring block's statistics. One pass counts
+// the values below lo and gathers those inside into mid (at least len(b)
+// long); when the middle rank(s) fall among them, the median is selected
+// from mid alone, a fifth or so of b, and is the same value median32 would
+// return, since the k-th smallest value does not depend on how it is found
+// (the two-pivot idea of Floyd & Rivest 1975, "Algorithm 489: SELECT",
+// Commun ACM 18(3):173, with the pivots taken from the neighbour rather
+// than from a sample). Otherwise, or when b holds a NaN, it is median32(b).
+// b is left as it was or reordered.
+func median32Near(b []float32, lo, hi float32, mid []float32) float64 {
+	k := len(b)
+	if k < 16 || !(lo <= hi) {
+		return median32(b)
+	}
+	mid = mid[:k]
+	below, m, above := 0, 0, 0
+	for _, v := range b {
+		mid[m] = v
+		// written so that the compiler emits SETcc, not branches (see selectK)
+		ge, le := 0, 0
+		if v >= lo {
+			ge = 1
+		}
+		if v <= hi {
+			le = 1
+		}
+		m += ge & le
+		below += 1 - ge
+		above += 1 - le
+	}
+	// a NaN is neither ≥ lo nor ≤ hi, and is counted twice
+	if below+m+above != k {
+		return median32(b)
+	}
+	j := k/2 - below // rank of the upper middle within mid
+	first := j       // rank of the lower middle (the same for odd length)
+	if k%2 == 0 {
+		first = j - 1
+	}
+	if first < 0 || j >= m {
+		return median32(b)
+	}
+	up := float64(selectK(mid[:m], j))
+	if k%2 == 1 {
+		return up
+	}
+	dn := mid[0]
+	for _, v := range mid[1:j] {
+		dn = max(dn, v)
+	}
+	return (float64(dn) + up) / 2
 }

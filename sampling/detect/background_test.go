@@ -90,3 +90,51 @@ func TestSlidingScaleMatchesSort(t *testing.T) {
 		}
 	}
 }
+
+// TestMedianNear checks median32Near against the median of the values
+// sorted by the standard library's slices.Sort, bit for bit, with brackets
+// that hold the middle, miss it on either side, are empty or inverted, and
+// on input with ties and with a NaN (which falls back to median32).
+func TestMedianNear(t *testing.T) {
+	r := rand.New(rand.NewPCG(5, 6))
+	mid := make([]float32, 400)
+	hits := 0
+	for trial := range 3000 {
+		n := 1 + r.IntN(300)
+		x := make([]float32, n)
+		for i := range x {
+			x[i] = float32(r.NormFloat64())
+			if trial%4 == 0 {
+				x[i] = float32(r.IntN(5)) // ties
+			}
+		}
+		s := slices.Clone(x)
+		slices.Sort(s)
+		want := float64(s[n/2])
+		if n%2 == 0 {
+			want = (float64(s[n/2-1]) + float64(s[n/2])) / 2
+		}
+		c := float32(want) + float32(0.3*r.NormFloat64())
+		w := float32(0.5 * r.ExpFloat64())
+		lo, hi := c-w, c+w
+		if trial%10 == 0 {
+			lo, hi = hi, lo
+		}
+		y := slices.Clone(x)
+		if got := median32Near(y, lo, hi, mid); got != want {
+			t.Fatalf("trial %d n=%d bracket [%g, %g]: %g, want %g", trial, n, lo, hi, got, want)
+		}
+		if n >= 16 && lo <= float32(want) && float32(want) <= hi {
+			hits++
+		}
+		if n > 1 && trial%50 == 0 {
+			x[r.IntN(n)] = float32(math.NaN())
+			if got, ref := median32Near(slices.Clone(x), lo, hi, mid), median32(slices.Clone(x)); got != ref && !(math.IsNaN(got) && math.IsNaN(ref)) {
+				t.Fatalf("trial %d with NaN: %g, median32 %g", trial, got, ref)
+			}
+		}
+	}
+	if hits < 1000 {
+		t.Fatalf("only %d trials exercised the bracketed path", hits)
+	}
+}

@@ -2,6 +2,7 @@ package detect
 
 import (
 	"context"
+	"math"
 	"math/rand/v2"
 	"os"
 	"strings"
@@ -137,6 +138,35 @@ func patchPhysMax(t *testing.T, path string, k int, v string) {
 	for i := range k {
 		if _, err := f.WriteAt(field, int64(256+ns*(16+80+8+8)+8*i)); err != nil {
 			t.Fatal(err)
+		}
+	}
+}
+
+// TestNonFiniteSamples checks that NaN, +Inf and −Inf samples each make
+// their channel excluded with a warning, and that finite extremes of
+// float32 (±MaxFloat32, the smallest subnormal) do not.
+func TestNonFiniteSamples(t *testing.T) {
+	labels := []string{"Fp1", "F3", "C3", "P3", "O1", "Fp2", "F4", "C4", "P4", "O2"}
+	const fs, n = 256, 256 * 30
+	for _, c := range []struct {
+		v   float32
+		bad bool
+	}{
+		{float32(math.NaN()), true}, {float32(math.Inf(1)), true}, {float32(math.Inf(-1)), true},
+		{math.MaxFloat32, false}, {-math.MaxFloat32, false}, {math.SmallestNonzeroFloat32, false},
+	} {
+		var data memSource
+		for i := range labels {
+			data = append(data, noise(uint64(40+i), n, 30))
+		}
+		data[3][n/2] = c.v
+		in := Input{RecordingID: "r", Labels: labels, Rate: fs, Len: n, Src: data}
+		_, warns, err := Detect(context.Background(), in, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := hasWarning(warns, "channel P3: non-finite"); got != c.bad {
+			t.Errorf("sample %g: non-finite warning %v, want %v (%q)", c.v, got, c.bad, warns)
 		}
 	}
 }

@@ -87,7 +87,7 @@ func largerWave(t *trace, ph phase) phase {
 func dominantHz(t *trace, p int, span float64, sc *scratch) float64 {
 	n := int(math.Round(welchS * t.fs))
 	if sc.fftN != n {
-		sc.fftN, sc.fft = n, fourier.NewFFT(n)
+		sc.fftN, sc.fft, sc.rfft = n, fourier.NewFFT(n), newRFFT(n)
 		sc.win = make([]float64, n)
 		for i := range sc.win {
 			sc.win[i] = 0.5 - 0.5*math.Cos(2*math.Pi*float64(i)/float64(n))
@@ -96,6 +96,10 @@ func dominantHz(t *trace, p int, span float64, sc *scratch) float64 {
 		sc.psd = make([]float64, n/2+1)
 		sc.co = make([]complex128, n/2+1)
 	}
+	// only the bins of the search band are read
+	df := t.fs / float64(n)
+	k0 := int(math.Ceil(bgLowHz / df))
+	k1 := min(n/2, int(math.Floor(bgHighHz/df))+1)
 	clear(sc.psd)
 	segs := 0
 	for _, r := range t.backgroundSpan(p, span) {
@@ -108,9 +112,13 @@ func dominantHz(t *trace, p int, span float64, sc *scratch) float64 {
 			for i, v := range t.x[s : s+n] {
 				sc.seg[i] = (float64(v) - mean) * sc.win[i]
 			}
-			sc.co = sc.fft.Coefficients(sc.co, sc.seg)
-			for k, c := range sc.co {
-				sc.psd[k] += real(c)*real(c) + imag(c)*imag(c)
+			if sc.rfft != nil {
+				sc.rfft.coefficients(sc.co, sc.seg, k0, k1)
+			} else {
+				sc.co = sc.fft.Coefficients(sc.co, sc.seg)
+			}
+			for k, c := range sc.co[k0 : k1+1] {
+				sc.psd[k0+k] += real(c)*real(c) + imag(c)*imag(c)
 			}
 			segs++
 		}
@@ -118,9 +126,8 @@ func dominantHz(t *trace, p int, span float64, sc *scratch) float64 {
 	if segs == 0 {
 		return math.NaN()
 	}
-	df := t.fs / float64(n)
 	best, fb := -1.0, math.NaN()
-	for k := int(math.Ceil(bgLowHz / df)); k < len(sc.psd) && float64(k)*df <= bgHighHz; k++ {
+	for k := k0; k <= k1 && float64(k)*df <= bgHighHz; k++ {
 		f := float64(k) * df
 		if v := f * sc.psd[k]; v > best {
 			best, fb = v, f

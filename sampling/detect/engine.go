@@ -189,7 +189,8 @@ func (e *engine) condition(cs, ce, qs, qe int64) (window, bool, error) {
 		x := e.raw[c]
 		nonFinite := 0
 		for i, v := range x {
-			if math.IsNaN(float64(v)) || math.IsInf(float64(v), 0) {
+			// v − v is 0 for every finite v and NaN for NaN and ±Inf
+			if d := v - v; d != d {
 				x[i] = 0
 				nonFinite++
 			}
@@ -355,8 +356,7 @@ func (e *engine) find(w window, ws, we int64) []cluster {
 	for d, x := range e.det {
 		e.bank.prepare(x, bstart, bend, block, h)
 		at := func(i int) float64 { return e.scaleAt(d, i, block, bstart) }
-		zAt := func(i int, sign float64) float64 { return e.bank.z(i, sign, bstart, block) }
-		e.dets = findChannel(e.dets, d, x, from, to, e.rate, e.s.thr, at, zAt)
+		e.dets = findChannel(e.dets, d, x, from, to, e.rate, e.s.thr, at, &e.bank, bstart, block)
 	}
 	out := complexes(merge(e.dets, tol), before, after, complexFrac, e.rate)
 	k := 0

@@ -68,6 +68,7 @@ func (t *trace) backgroundSpan(p int, span float64) [][2]int {
 type scratch struct {
 	fftN int
 	fft  *fourier.FFT
+	rfft *rfft // nil unless fftN is a power of two
 	seg  []float64
 	win  []float64
 	psd  []float64

@@ -56,16 +56,43 @@ func examine(x []float32, d, i int, sign, fs, thr, sc, z float64) (det detection
 
 // findChannel appends to dets the detections (see examine) among the
 // extrema of x in [from, to). scaleAt gives the broadband background scale
-// at a sample, zAt the matched response of a sign at a sample.
-func findChannel(dets []detection, d int, x []float32, from, to int, fs, thr float64, scaleAt func(i int) float64, zAt func(i int, sign float64) float64) []detection {
+// at a sample; b holds x's hat responses and their scales (bank.prepare,
+// over blocks of length block from start), from which the matched response
+// z of an extremum is read (bank.z). Most extrema of the background cannot
+// reach the threshold: z ≥ thr needs some hat with sign·response ≥
+// thr·scale, which is checked first, by multiplication against limits
+// computed once per block, with a margin of 1e-9 for rounding; only where
+// it passes is z computed, exactly, so the detections are those of
+// computing z at every extremum.
+func findChannel(dets []detection, d int, x []float32, from, to int, fs, thr float64, scaleAt func(i int) float64, b *bank, start, block int) []detection {
+	var buf [8]float64
+	lim := buf[:0]
+	if len(b.hats) > len(buf) {
+		lim = make([]float64, 0, len(b.hats))
+	}
+	lim = lim[:len(b.hats)]
+	tt := thr * (1 - 1e-9)
+	next := math.MinInt // first sample past the block whose limits lim holds
 	for i := max(from, 1); i < min(to, len(x)-1); i++ {
 		ok, sign := isExtremum(x, i)
 		if !ok {
 			continue
 		}
-		// the matched response first: it rejects most extrema for the
-		// cost of a few loads
-		z := zAt(i, sign)
+		if i >= next {
+			bi := max(i-start, 0) / block
+			next = start + (bi+1)*block
+			for k := range lim {
+				sc := b.scale[k]
+				lim[k] = tt * sc[min(bi, len(sc)-1)]
+				if !(thr > 0) {
+					lim[k] = math.Inf(-1)
+				}
+			}
+		}
+		if !b.mayReach(i, sign, lim) {
+			continue
+		}
+		z := b.z(i, sign, start, block)
 		if !(z >= thr) {
 			continue
 		}

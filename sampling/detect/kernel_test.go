@@ -118,3 +118,53 @@ func TestComplexes(t *testing.T) {
 		t.Fatalf("kept %v, want %v", peaks, want)
 	}
 }
+
+// TestFindChannelMatchesExactZ checks findChannel, which rejects most
+// extrema by a multiplication against per-block limits, against the same
+// search computing the exact matched response z at every extremum: the
+// same detections with the same values, on a noisy trace with spikes, for
+// thresholds that many and few extrema reach and blocks cut mid-trace.
+func TestFindChannelMatchesExactZ(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	const fs, n = 256, 256 * 20
+	x := make([]float32, n)
+	for i := range x {
+		x[i] = float32(rng.NormFloat64())
+	}
+	for i := 0; i+8 < n; i += 500 {
+		for j := range 8 {
+			x[i+j] += float32(12 * math.Sin(math.Pi*float64(j)/8))
+		}
+	}
+	var b bank
+	b.hats = hatsFor(fs)
+	const start = 100
+	b.prepare(x, start, n, fs, 5)
+	scaleAt := func(int) float64 { return 1 }
+	for _, thr := range []float64{0.5, 2, 5} {
+		got := findChannel(nil, 0, x, 10, n-10, fs, thr, scaleAt, &b, start, fs)
+		var want []detection
+		tested := 0
+		for i := 10; i < n-10; i++ {
+			ok, sign := isExtremum(x, i)
+			if !ok {
+				continue
+			}
+			z := b.z(i, sign, start, fs)
+			if !(z >= thr) {
+				continue
+			}
+			tested++
+			if det, pass := examine(x, 0, i, sign, fs, thr, 1, z); pass {
+				want = append(want, det)
+			}
+		}
+		if tested == 0 {
+			t.Fatalf("thr %g: no extremum reaches it; the test cannot fail", thr)
+		}
+		if !slices.Equal(got, want) {
+			t.Fatalf("thr %g: %d detections, exact z everywhere %d", thr, len(got), len(want))
+		}
+		t.Logf("thr %g: %d extrema reach it, %d detections", thr, tested, len(got))
+	}
+}

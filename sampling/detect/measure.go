@@ -141,7 +141,7 @@ func (e *engine) at(t float64) (candidate.Row, bool, error) {
 				best, found, passes = cand, true, pass
 			}
 		}
-		dets = findChannel(dets, d, x, max(int(ws-w.base)-tol, w.lo), min(int(we-w.base)+tol, w.hi), fs, e.s.thr, at, zAt)
+		dets = findChannel(dets, d, x, max(int(ws-w.base)-tol, w.lo), min(int(we-w.base)+tol, w.hi), fs, e.s.thr, at, &e.bank, bstart, block)
 	}
 	if !found {
 		e.warn("onset %s: no peak within ±100 ms", formatS(t))

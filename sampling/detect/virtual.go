@@ -165,25 +165,85 @@ func (bc *blockCov) build(xs [][]float32, lo, hi int, base int64, fs float64) {
 			for j := s0 - h; j <= s0+h; j++ {
 				m += float64(x[j])
 			}
-			k := 0
-			for s := s0; s < s0+bc.size; s++ {
-				if (s-s0)%vcStride == 0 {
+			// every vcStride-th sample, the moving mean advanced over
+			// the others without a test per sample
+			k, s := 0, s0
+			if vcStride == 2 {
+				for ; s+1 < s0+bc.size; s += 2 {
 					bc.z[k*n+c] = float64(x[s]) - m*inv
 					k++
+					m += float64(x[s+h+1]) - float64(x[s-h])
+					m += float64(x[s+h+2]) - float64(x[s+1-h])
 				}
-				m += float64(x[s+h+1]) - float64(x[s-h])
+			}
+			for ; s < s0+bc.size; s += vcStride {
+				bc.z[k*n+c] = float64(x[s]) - m*inv
+				k++
+				for t := s; t < min(s+vcStride, s0+bc.size); t++ {
+					m += float64(x[t+h+1]) - float64(x[t-h])
+				}
 			}
 		}
 		mom := bc.mom[b*stride : (b+1)*stride]
-		Z := mat.NewDense(per, n, bc.z[:per*n])
 		for k := range per {
 			for c := range n {
 				mom[c] += bc.z[k*n+c]
 			}
 		}
-		S := mat.NewSymDense(n, mom[n:])
-		S.SymRankK(S, 1, Z.T())
+		rankK(mom[n:n+n*n], bc.z[:per*n], n)
 		bc.cnt[b] = per
+	}
+}
+
+// rankK adds to the upper triangle of the n×n row-major s the products
+// zᵀz of the rows of z (k×n, row-major): s_ij += Σ_l z_li·z_lj, i ≤ j. It
+// is BLAS dsyrk (upper, transposed; Dongarra et al. 1990, "A set of level 3
+// basic linear algebra subprograms", ACM Trans Math Softw 16:1–17) with
+// the accumulation order of gonum's: each s_ij gains its terms in
+// increasing l, rows whose z_li is zero skipped, every product rounded
+// before it is added (no fused multiply–add), so the sums are the same bit
+// for bit; one loop here rather than a call per row and term.
+//
+// Rows are taken two at a time, each sum gaining the first row's term and
+// then the second's in one pass over s.
+func rankK(s, z []float64, n int) {
+	l := 0
+	for ; l+2*n <= len(z); l += 2 * n {
+		zl, zm := z[l:l+n], z[l+n:l+2*n]
+		for i, a := range zl {
+			c := zm[i]
+			row := s[i*n+i : i*n+n]
+			zr, zq := zl[i:], zm[i:]
+			zr, zq = zr[:len(row)], zq[:len(row)]
+			switch {
+			case a != 0 && c != 0:
+				for j := range row {
+					row[j] = row[j] + float64(a*zr[j]) + float64(c*zq[j])
+				}
+			case a != 0:
+				for j := range row {
+					row[j] += float64(a * zr[j])
+				}
+			case c != 0:
+				for j := range row {
+					row[j] += float64(c * zq[j])
+				}
+			}
+		}
+	}
+	for ; l+n <= len(z); l += n {
+		zl := z[l : l+n]
+		for i, a := range zl {
+			if a == 0 {
+				continue
+			}
+			row := s[i*n+i : i*n+n]
+			zr := zl[i:]
+			zr = zr[:len(row)]
+			for j := range row {
+				row[j] += float64(a * zr[j])
+			}
+		}
 	}
 }
 

@@ -3,6 +3,7 @@ package detect
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
@@ -171,6 +172,36 @@ func TestBlockCovariance(t *testing.T) {
 	for i := range got {
 		if math.Abs(again[i]-got[i]) > 1e-12*math.Max(1, math.Abs(got[i])) {
 			t.Fatalf("other window: C differs at %d: %g against %g", i, again[i], got[i])
+		}
+	}
+}
+
+// TestRankKMatchesGonum checks rankK against gonum's SymDense.SymRankK
+// (BLAS dsyrk) bit for bit, on random rows with zeros among them.
+func TestRankKMatchesGonum(t *testing.T) {
+	rng := rand.New(rand.NewPCG(13, 14))
+	for _, n := range []int{1, 4, 19} {
+		for _, k := range []int{63, 64} {
+			z := make([]float64, k*n)
+			for i := range z {
+				if rng.IntN(10) > 0 {
+					z[i] = rng.NormFloat64() * 30
+				}
+			}
+			s := make([]float64, n*n)
+			for i := range s {
+				s[i] = rng.NormFloat64()
+			}
+			S := mat.NewSymDense(n, slices.Clone(s))
+			S.SymRankK(S, 1, mat.NewDense(k, n, z).T())
+			rankK(s, z, n)
+			for i := range n {
+				for j := i; j < n; j++ {
+					if s[i*n+j] != S.At(i, j) {
+						t.Fatalf("n=%d k=%d (%d,%d): %v, gonum %v", n, k, i, j, s[i*n+j], S.At(i, j))
+					}
+				}
+			}
 		}
 	}
 }
