@@ -54,18 +54,41 @@ func Read[T any](path string) (out []T, err error) {
 	if err := Conforms(pf.Schema(), parquet.SchemaOf(new(T))); err != nil {
 		return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrSchema}
 	}
+	total := pf.NumRows()
+	if total < 0 || total > MaxRows {
+		return nil, &FileError{Path: path, Detail: fmt.Sprintf("footer claims %d rows; a study table holds 0 to %d", total, MaxRows), Err: ErrDamaged}
+	}
 	r := parquet.NewGenericReader[T](pf)
 	defer r.Close()
-	out = make([]T, pf.NumRows())
-	n, err := r.Read(out)
-	if err != nil && err != io.EOF {
-		return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrDamaged}
+	// Rows are read in chunks rather than into one slice of the footer's count, so
+	// a damaged footer cannot make Read allocate for rows the file does not hold.
+	buf := make([]T, min(total, readChunk))
+	for int64(len(out)) < total {
+		n, err := r.Read(buf[:min(int64(len(buf)), total-int64(len(out)))])
+		out = append(out, buf[:n]...)
+		if err == io.EOF || (err == nil && n == 0) {
+			break
+		}
+		if err != nil {
+			return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrDamaged}
+		}
 	}
-	if int64(n) != pf.NumRows() {
-		return nil, &FileError{Path: path, Detail: fmt.Sprintf("%d of %d rows readable", n, pf.NumRows()), Err: ErrDamaged}
+	if int64(len(out)) != total {
+		return nil, &FileError{Path: path, Detail: fmt.Sprintf("%d of %d rows readable", len(out), total), Err: ErrDamaged}
 	}
-	return out[:n], nil
+	if out == nil {
+		out = []T{}
+	}
+	return out, nil
 }
+
+// MaxRows bounds the rows a table may claim: far above any study's (a year of
+// continuous EEG at 20 candidates a minute is about 10.5 million), far below what
+// would exhaust memory. A footer claiming more is damage.
+const MaxRows = 100_000_000
+
+// readChunk is how many rows Read decodes at a time.
+const readChunk = 4096
 
 // Check reads path as a table of T and throws the rows away: the footer, the schema and
 // every page are checked.
