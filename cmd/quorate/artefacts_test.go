@@ -2,13 +2,9 @@ package main
 
 import (
 	"go/ast"
-	"go/parser"
 	"go/token"
-	"io/fs"
-	"path/filepath"
 	"regexp"
 	"strconv"
-	"strings"
 	"testing"
 )
 
@@ -22,46 +18,31 @@ var artefactName = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9_.\-/]*\.(parquet|j
 // cannot disagree on a name: no file name appears as a string literal outside a const
 // declaration in any package (tests aside).
 func TestArtefactNamesAreConstants(t *testing.T) {
-	root := filepath.Join("..", "..")
 	checked := 0
-	for _, pkg := range []string{"cmd", "sampling", "panel", "tuning", "export", "internal"} {
-		err := filepath.WalkDir(filepath.Join(root, pkg), func(p string, d fs.DirEntry, err error) error {
-			if err != nil || d.IsDir() || !strings.HasSuffix(p, ".go") || strings.HasSuffix(p, "_test.go") {
-				return err
-			}
-			fset := token.NewFileSet()
-			f, err := parser.ParseFile(fset, p, nil, 0)
-			if err != nil {
-				return err
-			}
-			inConst := map[*ast.BasicLit]bool{}
-			for _, decl := range f.Decls {
-				if g, ok := decl.(*ast.GenDecl); ok && g.Tok == token.CONST {
-					ast.Inspect(g, func(n ast.Node) bool {
-						if b, ok := n.(*ast.BasicLit); ok {
-							inConst[b] = true
-						}
-						return true
-					})
-				}
-			}
-			ast.Inspect(f, func(n ast.Node) bool {
-				lit, ok := n.(*ast.BasicLit)
-				if !ok || lit.Kind != token.STRING {
+	eachSource(t, []string{"cmd", "sampling", "panel", "tuning", "export", "internal"}, func(_ string, fset *token.FileSet, f *ast.File) {
+		inConst := map[*ast.BasicLit]bool{}
+		for _, decl := range f.Decls {
+			if g, ok := decl.(*ast.GenDecl); ok && g.Tok == token.CONST {
+				ast.Inspect(g, func(n ast.Node) bool {
+					if b, ok := n.(*ast.BasicLit); ok {
+						inConst[b] = true
+					}
 					return true
-				}
-				checked++
-				if s, err := strconv.Unquote(lit.Value); err == nil && artefactName.MatchString(s) && !inConst[lit] {
-					t.Errorf("%s: file name %q as a literal; use (or add) an exported constant", fset.Position(lit.Pos()), s)
-				}
-				return true
-			})
-			return nil
-		})
-		if err != nil {
-			t.Fatal(err)
+				})
+			}
 		}
-	}
+		ast.Inspect(f, func(n ast.Node) bool {
+			lit, ok := n.(*ast.BasicLit)
+			if !ok || lit.Kind != token.STRING {
+				return true
+			}
+			checked++
+			if s, err := strconv.Unquote(lit.Value); err == nil && artefactName.MatchString(s) && !inConst[lit] {
+				t.Errorf("%s: file name %q as a literal; use (or add) an exported constant", fset.Position(lit.Pos()), s)
+			}
+			return true
+		})
+	})
 	if checked < 1000 {
 		t.Fatalf("only %d string literals read: the walk missed the packages", checked)
 	}

@@ -6,9 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"go/ast"
-	"go/parser"
 	"go/token"
-	"io/fs"
 	"path/filepath"
 	"regexp"
 	"strconv"
@@ -75,28 +73,14 @@ var cliWordsRE = func() *regexp.Regexp {
 // No string literal of a domain package (outside tests) names a command, a flag or
 // study.yaml: those words belong to the command layer (hints.go).
 func TestDomainStringsHaveNoCLIWords(t *testing.T) {
-	root := filepath.Join("..", "..")
-	for _, pkg := range []string{"sampling", "panel", "tuning", "export", "internal"} {
-		err := filepath.WalkDir(filepath.Join(root, pkg), func(p string, d fs.DirEntry, err error) error {
-			if err != nil || d.IsDir() || !strings.HasSuffix(p, ".go") || strings.HasSuffix(p, "_test.go") {
-				return err
-			}
-			f, err := parser.ParseFile(token.NewFileSet(), p, nil, 0)
-			if err != nil {
-				return err
-			}
-			ast.Inspect(f, func(n ast.Node) bool {
-				if lit, ok := n.(*ast.BasicLit); ok && lit.Kind == token.STRING {
-					if s, err := strconv.Unquote(lit.Value); err == nil && cliWords(s) {
-						t.Errorf("%s: %q names a command, a flag or study.yaml", p, s)
-					}
+	eachSource(t, []string{"sampling", "panel", "tuning", "export", "internal"}, func(p string, _ *token.FileSet, f *ast.File) {
+		ast.Inspect(f, func(n ast.Node) bool {
+			if lit, ok := n.(*ast.BasicLit); ok && lit.Kind == token.STRING {
+				if s, err := strconv.Unquote(lit.Value); err == nil && cliWords(s) {
+					t.Errorf("%s: %q names a command, a flag or study.yaml", p, s)
 				}
-				return true
-			})
-			return nil
+			}
+			return true
 		})
-		if err != nil {
-			t.Fatal(err)
-		}
-	}
+	})
 }
