@@ -12,12 +12,10 @@ import (
 	"github.com/quorate-eeg/quorate/export/report"
 )
 
-// panelOf empties a demo study's returns and consensus and merges the first n of its
-// simulated raters' returns (the demo's inbox holds one per packet, one packet per
-// rater), as a coordinator would part-way through a study.
-func panelOf(t *testing.T, n int) string {
+// clearReturns removes a demo study's stored returns (read-only by design) and its
+// consensus, as if no rater had returned yet.
+func clearReturns(t *testing.T, st string) {
 	t.Helper()
-	st := demoStudy(t)
 	for _, d := range []string{study.ReturnsDir, study.ConsensusDir} {
 		p := filepath.Join(st, d)
 		filepath.WalkDir(p, func(q string, _ os.DirEntry, _ error) error { os.Chmod(q, 0o755); return nil })
@@ -25,6 +23,15 @@ func panelOf(t *testing.T, n int) string {
 			t.Fatal(err)
 		}
 	}
+}
+
+// panelOf empties a demo study's returns and consensus and merges the first n of its
+// simulated raters' returns (the demo's inbox holds one per packet, one packet per
+// rater), as a coordinator would part-way through a study.
+func panelOf(t *testing.T, n int) string {
+	t.Helper()
+	st := demoStudy(t)
+	clearReturns(t, st)
 	inbox, _ := filepath.Glob(filepath.Join(filepath.Dir(st), "inbox", "*.json"))
 	sort.Strings(inbox)
 	if len(inbox) != 3 {

@@ -19,13 +19,7 @@ import (
 // its reason naming the item, and leaves a packet whose only return is blank "out".
 func TestStatusCountsOwedAndRefused(t *testing.T) {
 	st := demoStudy(t)
-	for _, d := range []string{study.ReturnsDir, study.ConsensusDir} {
-		p := filepath.Join(st, d)
-		filepath.WalkDir(p, func(q string, _ os.DirEntry, _ error) error { os.Chmod(q, 0o755); return nil })
-		if err := os.RemoveAll(p); err != nil {
-			t.Fatal(err)
-		}
-	}
+	clearReturns(t, st)
 	old, err := packet.ReadManifest(filepath.Join(st, study.PacketsDir, "manifest.json"))
 	if err != nil {
 		t.Fatal(err)
