@@ -2,6 +2,7 @@ package parquetfile
 
 import (
 	"errors"
+	"fmt"
 	"os"
 	"path/filepath"
 	"testing"
@@ -92,4 +93,29 @@ func FuzzRead(f *testing.F) {
 			t.Fatalf("rows beside an error")
 		}
 	})
+}
+
+// Rows are read in chunks of readChunk: a table longer than several chunks comes back
+// whole and in order, and an empty table as an empty slice, not nil.
+func TestReadAcrossChunks(t *testing.T) {
+	dir := t.TempDir()
+	for _, n := range []int{0, 1, readChunk, 2*readChunk + 17} {
+		rows := make([]row, n)
+		for i := range rows {
+			rows[i] = row{ID: fmt.Sprint(i), X: float64(i), Tags: []string{}}
+		}
+		p := filepath.Join(dir, fmt.Sprintf("t%d.parquet", n))
+		if err := Write(p, rows, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		got, err := Read[row](p)
+		if err != nil || got == nil || len(got) != n {
+			t.Fatalf("%d rows: read %d, nil %v, %v", n, len(got), got == nil, err)
+		}
+		for i, r := range got {
+			if r.X != float64(i) || r.ID != fmt.Sprint(i) {
+				t.Fatalf("%d rows: row %d is %+v", n, i, r)
+			}
+		}
+	}
 }
