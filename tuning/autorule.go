@@ -39,6 +39,7 @@ func (c Cutoff) String() string {
 type AutoCandidate struct {
 	K       int
 	Cutoffs [6]Cutoff
+	Score   Cutoff // the detector score's vote; Direction 0 when the method has none
 	Point
 }
 
@@ -60,22 +61,55 @@ type AutoCandidate struct {
 // cutoff, and the rest are misses. The policy then picks k among the six
 // results (ties to the larger k). Rates are design-weighted.
 type AutoRule struct {
-	Method  string          // MethodVerdict, MethodCriterion or MethodJoint
-	ByK     []AutoCandidate // K = 1…6
+	Method  string          // one of the Method constants
+	ByK     []AutoCandidate // K = 1…6, or 1…7 when the score votes
 	Chosen  int             // index into ByK
 	K       int
 	Cutoffs [6]Cutoff
+	Score   Cutoff // the detector score's vote (MethodScoreVote); Direction 0 otherwise
+}
+
+// votes is the number of slots of an automatic rule: the six criteria and,
+// in slot scoreSlot, the detector score.
+const (
+	votes     = 7
+	scoreSlot = 6
+)
+
+// value is slot j of event e: criterion j's feature, or the score.
+func value(e *Event, j int) float64 {
+	if j == scoreSlot {
+		return e.Score
+	}
+	return e.Features[j]
+}
+
+// slotName is the column name of slot j.
+func slotName(j int) string {
+	if j == scoreSlot {
+		return "score"
+	}
+	return candidate.FeatureNames[j]
+}
+
+// slotLabel is how messages name slot j: "c1"…"c6" or "score".
+func slotLabel(j int) string {
+	if j == scoreSlot {
+		return "score"
+	}
+	return "c" + strconv.Itoa(j+1)
 }
 
 // autoFit is a fitted automatic rule in direction-adjusted units.
 type autoFit struct {
 	k      int
-	dir    [6]float64
-	cut    [6]float64
-	active [6]bool
-	byK    [6]struct {
+	slots  int // 6, or 7 when the score votes; k runs 1…slots
+	dir    [votes]float64
+	cut    [votes]float64
+	active [votes]bool
+	byK    [votes]struct {
 		g     [6]int
-		cut   [6]float64
+		cut   [votes]float64
 		point accuracy.Point
 		w     accuracy.Confusion
 		fp    float64
@@ -84,32 +118,41 @@ type autoFit struct {
 }
 
 // met reports whether event e meets the fitted rule with cutoffs cut at k.
-func (f *autoFit) hits(e *Event, cut *[6]float64, k int) bool {
+func (f *autoFit) hits(e *Event, cut *[votes]float64, k int) bool {
 	n := 0
-	for j := range 6 {
-		if f.active[j] && f.dir[j]*e.Features[j] >= cut[j] {
+	for j := range votes {
+		if f.active[j] && f.dir[j]*value(e, j) >= cut[j] {
 			n++
 		}
 	}
 	return n >= k
 }
 
-func (f *autoFit) cutoffs(cut [6]float64) [6]Cutoff {
+func (f *autoFit) cutoffs(cut [votes]float64) [6]Cutoff {
 	var out [6]Cutoff
 	for j := range 6 {
-		out[j] = Cutoff{Criterion: j + 1, Feature: candidate.FeatureNames[j], Value: math.NaN()}
-		if f.active[j] {
-			out[j].Direction = int(f.dir[j])
-			out[j].Value = f.dir[j] * cut[j]
-		}
+		out[j] = f.slot(cut, j)
 	}
 	return out
 }
 
-func (f *autoFit) name(cut [6]float64, k int) string {
+// slot is slot j's cutoff; the score's has Criterion 0.
+func (f *autoFit) slot(cut [votes]float64, j int) Cutoff {
+	c := Cutoff{Criterion: j + 1, Feature: slotName(j), Value: math.NaN()}
+	if j == scoreSlot {
+		c.Criterion = 0
+	}
+	if f.active[j] {
+		c.Direction = int(f.dir[j])
+		c.Value = f.dir[j] * cut[j]
+	}
+	return c
+}
+
+func (f *autoFit) name(cut [votes]float64, k int) string {
 	var parts []string
-	for _, c := range f.cutoffs(cut) {
-		if c.Direction != 0 {
+	for j := range votes {
+		if c := f.slot(cut, j); c.Direction != 0 {
 			parts = append(parts, c.String())
 		}
 	}
@@ -119,7 +162,7 @@ func (f *autoFit) name(cut [6]float64, k int) string {
 // fitAuto runs the joint search on s. A policy no rule satisfies still
 // returns the nearest rule, with the *accuracy.NoPointError.
 func fitAuto(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
-	f := &autoFit{}
+	f := &autoFit{slots: 6}
 	var warn []string
 	n := s.n()
 	var level [6][]uint8
@@ -166,7 +209,7 @@ func fitAuto(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
 			}
 		}
 	}
-	if f.active == [6]bool{} {
+	if f.active == [votes]bool{} {
 		return nil, warn, &NoDataError{Msg: "no criterion feature varies: no automatic rule can be tuned"}
 	}
 	var totPos, totNeg float64
@@ -287,11 +330,11 @@ func fitAuto(s *evset, p accuracy.Policy) (*autoFit, []string, error) {
 		bk.point, bk.w, bk.fp = best, bestW, bestFP
 		kpts[k-1] = best
 	}
-	for k := range f.byK {
+	for k := range f.slots {
 		placeCuts(s, f, &f.byK[k].cut)
 	}
 	idx, err := chooseK(kpts[:], p)
-	f.k = idx + 1
+	f.k = idx + 1 // k of 6
 	f.cut = f.byK[idx].cut
 	return f, warn, err
 }

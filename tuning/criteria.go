@@ -56,15 +56,17 @@ func fitCriterion(s *evset, j int, withPlain bool) criterionFit {
 	return fitFeature(s, j, withPlain, false)
 }
 
-// fitFeature finds the direction and Youden cutoff of feature j against
-// the panel majority for criterion j, or, with byVerdict, against the
-// reference standard (the IED verdict) on every event where the feature is
-// measured.
+// fitFeature finds the direction and Youden cutoff of slot j (a criterion's
+// feature, or the detector score at scoreSlot) against the panel majority
+// for criterion j, or, with byVerdict, against the reference standard (the
+// IED verdict) on every event where the value is measured. The score has no
+// criterion majority and is always fitted by verdict.
 func fitFeature(s *evset, j int, withPlain, byVerdict bool) criterionFit {
+	byVerdict = byVerdict || j == scoreSlot
 	var x, w []float64
 	var t []bool
 	for i, e := range s.src {
-		v := e.Features[j]
+		v := value(e, j)
 		if math.IsNaN(v) || (!byVerdict && e.Majority[j] == -1) {
 			continue
 		}
@@ -76,7 +78,7 @@ func fitFeature(s *evset, j int, withPlain, byVerdict bool) criterionFit {
 		}
 		w = append(w, s.weight[i])
 	}
-	name := candidate.FeatureNames[j]
+	name, label := slotName(j), slotLabel(j)
 	pos := 0
 	for _, b := range t {
 		if b {
@@ -86,33 +88,33 @@ func fitFeature(s *evset, j int, withPlain, byVerdict bool) criterionFit {
 	switch {
 	case len(x) == 0:
 		if byVerdict {
-			return criterionFit{skip: fmt.Sprintf("c%d: no event with a reference has a measured %s", j+1, name)}
+			return criterionFit{skip: fmt.Sprintf("%s: no event with a reference has a measured %s", label, name)}
 		}
-		return criterionFit{skip: fmt.Sprintf("c%d: no event has both a panel decision and a measured %s", j+1, name)}
+		return criterionFit{skip: fmt.Sprintf("%s: no event has both a panel decision and a measured %s", label, name)}
 	case pos == 0 || pos == len(x):
-		label := "panel majority"
+		ref := "panel majority"
 		if byVerdict {
-			label = "reference standard"
+			ref = "reference standard"
 		}
-		return criterionFit{skip: fmt.Sprintf("c%d: the %s is the same for all %d events; no ROC for %s", j+1, label, len(x), name)}
+		return criterionFit{skip: fmt.Sprintf("%s: the %s is the same for all %d events; no ROC for %s", label, ref, len(x), name)}
 	}
 	lo, hi := x[0], x[0]
 	for _, v := range x {
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
 	}
 	if lo == hi {
-		return criterionFit{skip: fmt.Sprintf("c%d: %s is constant (%g) on all %d events; its ROC is skipped and the criterion is left out of the automatic rule", j+1, name, lo, len(x))}
+		return criterionFit{skip: fmt.Sprintf("%s: %s is constant (%g) on all %d events; its ROC is skipped and it is left out of the automatic rule", label, name, lo, len(x))}
 	}
 	f := criterionFit{dir: 1, ok: true}
 	f.th, f.weighed = accuracy.Counts(x, t, w)
 	if a := countsAUC(f.weighed); a < 0.5 {
 		// Never flipped: see CriterionROC.
-		label := fmt.Sprintf("panel majority for c%d", j+1)
+		ref := fmt.Sprintf("panel majority for %s", label)
 		if byVerdict {
-			label = "panel verdict"
+			ref = "panel verdict"
 		}
-		f.against = fmt.Sprintf("c%d: %s runs against the %s (design-weighted AUC %.2f < 0.5); it keeps its defined direction (higher = met), so it rarely helps the rule",
-			j+1, name, label, a)
+		f.against = fmt.Sprintf("%s: %s runs against the %s (design-weighted AUC %.2f < 0.5); it keeps its defined direction (higher = met), so it rarely helps the rule",
+			label, name, ref, a)
 	}
 	if withPlain {
 		_, f.plain = accuracy.Counts(x, t, nil)

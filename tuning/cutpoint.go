@@ -30,14 +30,14 @@ func gapCut(lo, hi float64) float64 {
 
 // placeCuts moves each active cutoff of f (cuts, direction-adjusted) into
 // the gap below it among the events of s, keeping every decision on s.
-func placeCuts(s *evset, f *autoFit, cut *[6]float64) {
-	for j := range 6 {
+func placeCuts(s *evset, f *autoFit, cut *[votes]float64) {
+	for j := range votes {
 		if !f.active[j] {
 			continue
 		}
 		lo, hi := math.Inf(-1), math.Inf(1)
 		for _, e := range s.src {
-			v := f.dir[j] * e.Features[j]
+			v := f.dir[j] * value(e, j)
 			if math.IsNaN(v) {
 				continue
 			}

@@ -27,9 +27,11 @@
 // labelled so.
 //
 // The automatic rule "at least k criteria met at these cutoffs" is fitted
-// with each cutoff fitted to its criterion's own panel majority
-// (MethodCriterion, the default), read off its feature's ROC against the
-// panel's IED verdict (MethodVerdict), or by the joint search
+// with each cutoff fitted to its criterion's own panel majority and the
+// detector score as a seventh vote fitted against the panel's IED verdict
+// (MethodScoreVote, the default), with the six criteria alone
+// (MethodCriterion), with each cutoff read off its feature's ROC against
+// the panel's IED verdict (MethodVerdict), or by the joint search
 // (MethodJoint); the report shows the joint search's honest figures beside
 // the default's.
 package tuning

@@ -38,16 +38,12 @@ type Options struct {
 	// estimators the headline was compared with (Headline.Variants); for
 	// the coverage study's design work.
 	HeadlineVariants bool
-	// Method fits the automatic rule: MethodCriterion (the default, for
-	// ""), MethodVerdict or MethodJoint. MethodCriterion is the default
-	// because each criterion's cutoff is then fitted to that criterion's
-	// own label, the panel majority, with two free choices left against
-	// the verdict (one shared ROC point and k), and its headline held best:
-	// with every feature in its defined direction, on the demo's design
-	// seeds 101–125 its chosen rules' mean true sensitivity was 0.600
-	// against 0.603 for MethodVerdict and 0.730 for MethodJoint, whose
-	// headline held the true specificity in only 22 of 25 (README,
-	// performance). The report shows the joint search beside the default.
+	// Method fits the automatic rule: MethodDefault (for ""),
+	// MethodScoreVote, MethodCriterion, MethodVerdict or MethodJoint.
+	// The default leaves two free choices against the verdict (one shared
+	// ROC point and k) and adds the detector score as a seventh vote; why it
+	// was chosen, and on which seeds, is in the README (performance). The
+	// report shows the joint search beside the default.
 	Method        string
 	Seed          uint64  // seeds folds and bootstrap
 	Level         float64 // two-sided confidence level; 0 means 0.95

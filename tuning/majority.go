@@ -26,6 +26,22 @@ const (
 	// MethodJoint is the joint search of AutoRule: six cutoffs and k chosen
 	// together against the reference standard.
 	MethodJoint = "joint-search"
+	// MethodScoreVote is MethodCriterion with the detector score as a
+	// seventh vote: the rule is "at least k of the six criteria and
+	// 'score ≥ s'", the score's cutoff read off its ROC against the
+	// reference standard at the same shared target as the criteria's
+	// cutoffs, so the free choices against the verdict stay two (the
+	// target and k = 1…7). The score is the detector's own summary of the
+	// event and separates IEDs better than any one criterion's feature; a
+	// vote lets it rescue an IED one criterion short of k, or veto a
+	// look-alike one criterion over, without replacing the criteria. The
+	// form was fixed before it was measured: a tally of voters, as the
+	// criteria already are (Kittler et al. 1998, IEEE TPAMI 20:226, on
+	// combining classifiers by majority vote; from memory).
+	MethodScoreVote = "criteria-and-score"
+	// MethodDefault is the fit Run uses when Options.Method is empty
+	// (Options.Method says why).
+	MethodDefault = MethodScoreVote
 )
 
 // fitRule fits the automatic rule by method on s.
@@ -33,12 +49,14 @@ func fitRule(s *evset, method string, p accuracy.Policy) (*autoFit, []string, er
 	switch method {
 	case MethodJoint:
 		return fitAuto(s, p)
-	case MethodCriterion, "":
-		return fitMajority(s, p, false)
+	case MethodCriterion:
+		return fitMajority(s, p, false, false)
 	case MethodVerdict:
-		return fitMajority(s, p, true)
+		return fitMajority(s, p, true, false)
+	case MethodScoreVote, "":
+		return fitMajority(s, p, false, true)
 	}
-	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want %q, %q or %q, got %q", MethodCriterion, MethodVerdict, MethodJoint, method)}
+	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want %q, %q, %q or %q, got %q", MethodCriterion, MethodScoreVote, MethodVerdict, MethodJoint, method)}
 }
 
 // criterionTargets are the stated ways a criterion's cutoff is read off its
@@ -71,14 +89,22 @@ var criterionTargets = [...]float64{0, 0.50, 0.60, 0.70, 0.80, 0.85, 0.90, 0.95,
 // criterion's majority and the verdict disagree often enough that a cutoff
 // reproducing the majority is not the cutoff that separates IEDs (the
 // figures on the demo's design seeds are in the README, operating point).
-func fitMajority(s *evset, p accuracy.Policy, byVerdict bool) (*autoFit, []string, error) {
+//
+// withScore is MethodScoreVote: the detector score is a seventh slot, its
+// cutoff read off its own ROC against the reference standard at the same
+// target, and k runs 1…7.
+func fitMajority(s *evset, p accuracy.Policy, byVerdict, withScore bool) (*autoFit, []string, error) {
 	var warn []string
-	var fits [6]criterionFit
-	var active [6]bool
-	for j := range 6 {
+	var fits [votes]criterionFit
+	var active [votes]bool
+	slots := 6
+	if withScore {
+		slots = votes
+	}
+	for j := range slots {
 		fits[j] = fitFeature(s, j, false, byVerdict)
 		if !fits[j].ok {
-			warn = append(warn, fmt.Sprintf("c%d: %s; left out of the automatic rule", j+1, fits[j].skip))
+			warn = append(warn, fits[j].skip+"; left out of the automatic rule")
 			continue
 		}
 		if fits[j].against != "" {
@@ -86,7 +112,7 @@ func fitMajority(s *evset, p accuracy.Policy, byVerdict bool) (*autoFit, []strin
 		}
 		active[j] = true
 	}
-	if active == [6]bool{} {
+	if active == [votes]bool{} {
 		return nil, warn, &NoDataError{Msg: "no criterion has a panel majority both ways and a varying feature: no automatic rule can be tuned"}
 	}
 	var best *autoFit
@@ -94,20 +120,20 @@ func fitMajority(s *evset, p accuracy.Policy, byVerdict bool) (*autoFit, []strin
 	var pts []accuracy.Point
 	var cands []*autoFit
 	for _, target := range criterionTargets {
-		f := &autoFit{active: active}
-		for j := range 6 {
+		f := &autoFit{active: active, slots: slots}
+		for j := range slots {
 			if active[j] {
 				f.dir[j], f.cut[j] = fits[j].dir, fits[j].at(target)
 			}
 		}
 		placeCuts(s, f, &f.cut)
-		// One pass: weights by the number of criteria met (0…6), then
+		// One pass: weights by the number of slots met (0…slots), then
 		// every k from sums over those levels.
-		var pw, nw, cw [7]float64 // positives, negatives, negative candidates
+		var pw, nw, cw [votes + 1]float64 // positives, negatives, negative candidates
 		for i, e := range s.src {
 			n := 0
-			for j := range 6 {
-				if f.active[j] && f.dir[j]*e.Features[j] >= f.cut[j] {
+			for j := range slots {
+				if f.active[j] && f.dir[j]*value(e, j) >= f.cut[j] {
 					n++
 				}
 			}
@@ -122,13 +148,13 @@ func fitMajority(s *evset, p accuracy.Policy, byVerdict bool) (*autoFit, []strin
 				}
 			}
 		}
-		var kpts [6]accuracy.Point
-		for k := 1; k <= 6; k++ {
+		kpts := make([]accuracy.Point, slots)
+		for k := 1; k <= slots; k++ {
 			bk := &f.byK[k-1]
 			bk.cut = f.cut
 			var c accuracy.Confusion
 			var fc float64
-			for n := range 7 {
+			for n := range slots + 1 {
 				if n >= k {
 					c.TP += pw[n]
 					c.FP += nw[n]
@@ -144,12 +170,12 @@ func fitMajority(s *evset, p accuracy.Policy, byVerdict bool) (*autoFit, []strin
 			bk.point.FalsePerHour = falsePerHour(fc, s.hours)
 			kpts[k-1] = bk.point
 		}
-		pts = append(pts, kpts[:]...)
+		pts = append(pts, kpts...)
 		cands = append(cands, f)
 	}
 	idx, err := chooseK(pts, p)
-	best, bestErr = cands[idx/6], err
-	best.k = idx%6 + 1
+	best, bestErr = cands[idx/slots], err
+	best.k = idx%slots + 1
 	return best, warn, bestErr
 }
 

@@ -2,17 +2,19 @@ package tuning
 
 import "github.com/quorate-eeg/quorate/tuning/accuracy"
 
-// OperatingPoint is the final choice: by default the automatic rule "at
-// least K criteria met at these cutoffs" that the policy picked, with its
+// OperatingPoint is the final choice: the automatic rule "at least K of
+// these cutoffs met" (six criteria and, by default, the detector score)
+// that the policy picked, with its
 // in-sample, cross-validated and bootstrap figures.
 type OperatingPoint struct {
 	Analysis  string // which analysis produced the rule
-	Method    string // MethodVerdict, MethodCriterion or MethodJoint
+	Method    string // one of the Method constants
 	Rule      string // the rule in words
 	Policy    accuracy.Policy
 	Reference string // the reference standard's name
 	K         int
 	Cutoffs   [6]Cutoff
+	Score     Cutoff // the detector score's vote (MethodScoreVote); Direction 0 otherwise
 	// Headline is what to expect on new recordings: the figures corrected
 	// for the selection, with intervals that repeat it; nil when skipped.
 	Headline *Headline

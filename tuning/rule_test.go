@@ -24,6 +24,7 @@ func applyPrinted(t *testing.T, rule string, ev []Event) []bool {
 	for j, n := range candidate.FeatureNames {
 		col[n] = j
 	}
+	col["score"] = 6
 	type cond struct {
 		j  int
 		ge bool
@@ -43,7 +44,10 @@ func applyPrinted(t *testing.T, rule string, ev []Event) []bool {
 	for i, e := range ev {
 		n := 0
 		for _, c := range cs {
-			x := e.Features[c.j]
+			x := e.Score
+			if c.j < 6 {
+				x = e.Features[c.j]
+			}
 			if (c.ge && x >= c.v) || (!c.ge && x <= c.v) {
 				n++
 			}
@@ -66,7 +70,7 @@ func TestPrintedRulesReproduceCounts(t *testing.T) {
 			truth = append(truth, e.Reference == 1)
 		}
 	}
-	for _, m := range []string{MethodJoint, MethodCriterion} {
+	for _, m := range []string{MethodJoint, MethodCriterion, MethodScoreVote} {
 		res, err := Run(context.Background(), Options{Events: ev, RecordingHours: 10, Policy: accuracy.Policy{Kind: accuracy.Youden},
 			Bootstrap: -1, HeadlineReplicates: 20, Method: m, Seed: 3})
 		if err != nil {
@@ -78,6 +82,9 @@ func TestPrintedRulesReproduceCounts(t *testing.T) {
 			}
 		}
 		check(res.Final.Rule, res.Final.InSample.Counts)
+		if hasScore := strings.Contains(res.Final.Rule, "; score ≥ "); hasScore != (m == MethodScoreVote) {
+			t.Errorf("%s: rule %q: the score votes exactly in %s", m, res.Final.Rule, MethodScoreVote)
+		}
 		for _, b := range res.Auto.ByK {
 			check(b.Rule, b.Counts)
 		}

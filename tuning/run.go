@@ -102,7 +102,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 
 	method := o.Method
 	if method == "" {
-		method = MethodCriterion
+		method = MethodDefault
 	}
 	f, fw, err := fitRule(s, method, o.Policy)
 	for _, w := range fw {
@@ -117,15 +117,15 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		}
 		return nil, err
 	}
-	res.Auto = AutoRule{Method: method, Chosen: f.k - 1, K: f.k, Cutoffs: f.cutoffs(f.cut)}
-	for k := 1; k <= 6; k++ {
+	res.Auto = AutoRule{Method: method, Chosen: f.k - 1, K: f.k, Cutoffs: f.cutoffs(f.cut), Score: f.slot(f.cut, scoreSlot)}
+	for k := 1; k <= f.slots; k++ {
 		bk := f.byK[k-1]
 		hits := make([]bool, s.n())
 		for i, e := range s.src {
 			hits[i] = f.hits(e, &bk.cut, k)
 		}
 		c := accuracy.Tally(hits, s.truth, nil)
-		res.Auto.ByK = append(res.Auto.ByK, AutoCandidate{K: k, Cutoffs: f.cutoffs(bk.cut),
+		res.Auto.ByK = append(res.Auto.ByK, AutoCandidate{K: k, Cutoffs: f.cutoffs(bk.cut), Score: f.slot(bk.cut, scoreSlot),
 			Point: Point{Rule: f.name(bk.cut, k), Threshold: float64(k), Counts: c, Weighted: bk.w, FalsePerHour: falsePerHour(bk.fp, s.hours)}})
 	}
 
@@ -138,6 +138,7 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		Reference: o.ReferenceName,
 		K:         f.k,
 		Cutoffs:   f.cutoffs(f.cut),
+		Score:     f.slot(f.cut, scoreSlot),
 		InSample:  measure(s, hit, o.Level),
 	}
 	if o.HeadlineReplicates >= 0 {
@@ -151,12 +152,12 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 		// The other fitting method, side by side with its own honest figures.
 		other := MethodJoint
 		if method == MethodJoint {
-			other = MethodCriterion
+			other = MethodDefault
 		}
 		if g, _, err := fitRule(s, other, o.Policy); g != nil {
 			_ = err // a policy no rule meets still shows the nearest rule
 			alt := &OperatingPoint{Analysis: analysisName(other), Method: other, Rule: g.name(g.cut, g.k), Policy: o.Policy,
-				Reference: o.ReferenceName, K: g.k, Cutoffs: g.cutoffs(g.cut), InSample: measure(s, g.decide(s), o.Level)}
+				Reference: o.ReferenceName, K: g.k, Cutoffs: g.cutoffs(g.cut), Score: g.slot(g.cut, scoreSlot), InSample: measure(s, g.decide(s), o.Level)}
 			alt.Headline, err = headline(ctx, s, g, other, o.Policy, o.HeadlineReplicates, o.Seed, o.Level, progress.Silent{}, o.HeadlineVariants)
 			if err != nil {
 				return nil, err
@@ -198,6 +199,9 @@ func contains(v []string, s string) bool {
 func analysisName(method string) string {
 	if method == MethodJoint {
 		return "automatic rule: at least k criteria met, six cutoffs and k searched jointly against the reference standard"
+	}
+	if method == MethodScoreVote {
+		return "automatic rule: at least k of seven votes, the six criteria (each cutoff fitted to its criterion's panel majority) and the detector score (its cutoff against the reference standard), all read at one shared point of their ROCs (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
 	}
 	if method == MethodVerdict {
 		return "automatic rule: at least k criteria met, each cutoff read off its feature's ROC against the reference standard at one shared point (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"

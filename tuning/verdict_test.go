@@ -82,3 +82,60 @@ func TestFitFeatureByVerdict(t *testing.T) {
 		t.Errorf("weighted J of the rule %v, scikit-learn %v", j, ref.JVerdict)
 	}
 }
+
+// MethodScoreVote fits the detector score's cutoff against the reference
+// standard even though the criteria are fitted against their majorities:
+// the score has no criterion label. The same scikit-learn reference
+// (testdata/youden_verdict.py), with the feature given as the score and no
+// criterion measured: the score's cutoff is the verdict's Youden
+// threshold, and the rule "at least 1 of: score ≥ s" reaches its J.
+func TestScoreVoteByVerdict(t *testing.T) {
+	b, err := os.ReadFile("testdata/youden_verdict.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var ref struct {
+		Feature       []float64
+		Verdict       []bool
+		Weight        []float64
+		YoudenVerdict float64 `json:"youden_verdict"`
+		JVerdict      float64 `json:"j_verdict"`
+	}
+	if err := json.Unmarshal(b, &ref); err != nil {
+		t.Fatal(err)
+	}
+	var ev []Event
+	for i, x := range ref.Feature {
+		e := Event{Subject: string(rune('a' + i%8)), Weight: ref.Weight[i], Score: x}
+		for j := range 6 {
+			e.Majority[j] = -1
+			e.Features[j] = math.NaN()
+		}
+		if ref.Verdict[i] {
+			e.Reference = 1
+		}
+		ev = append(ev, e)
+	}
+	o := Options{Events: ev}
+	s, _, err := prepare(&o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if fs := fitFeature(s, scoreSlot, false, false); !fs.ok || fs.cut != ref.YoudenVerdict {
+		t.Errorf("score: ok %v, cutoff %v; scikit-learn %v", fs.ok, fs.cut, ref.YoudenVerdict)
+	}
+	f, warn, err := fitRule(s, MethodScoreVote, accuracy.Policy{Kind: accuracy.Youden})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(warn) != 6 { // each unmeasured criterion is left out, the score is not
+		t.Errorf("warnings %q, want one per unmeasured criterion", warn)
+	}
+	if f.k != 1 || !f.active[scoreSlot] || f.slot(f.cut, scoreSlot).Value >= ref.YoudenVerdict {
+		t.Errorf("rule %q, want at least 1 with the score's cutoff just below %v", f.name(f.cut, f.k), ref.YoudenVerdict)
+	}
+	c := accuracy.Tally(f.decide(s), s.truth, s.weight)
+	if j := c.Sensitivity() + c.Specificity() - 1; math.Abs(j-ref.JVerdict) > 1e-12 {
+		t.Errorf("weighted J of the rule %v, scikit-learn %v", j, ref.JVerdict)
+	}
+}

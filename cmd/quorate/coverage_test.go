@@ -103,7 +103,7 @@ func coverageSeed(t *testing.T, out string, seed int, sizes []string, method str
 		}
 		root.SetArgs(args)
 	} else {
-		if method != "" && method != tuning.MethodCriterion {
+		if method != "" && method != tuning.MethodDefault {
 			t.Fatalf("QUORATE_COVERAGE_METHOD=%s needs an existing QUORATE_COVERAGE_DIR: the demo tunes with the default", method)
 		}
 		args := append([]string{"--quiet", "--workers", "2", "demo", "--out", out, "--seed", strconv.Itoa(seed)}, sizes...)

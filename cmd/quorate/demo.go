@@ -313,7 +313,7 @@ type TruthStats struct {
 func TruthCheck(op *report.OperatingPoint, cands []candidate.Row, truth map[string]synth.Event) TruthStats {
 	var pred, ref []bool
 	for _, c := range cands {
-		v, ok := op.Decide(c.Features())
+		v, ok := op.Decide(c.Features(), c.Score)
 		if !ok {
 			continue
 		}

@@ -112,7 +112,7 @@ func runExport(ctx context.Context, g *globals, s *study.Study, f *exportFlags) 
 	if op, err := report.ReadOperatingPoint(opPath); err == nil {
 		dec := map[string]bool{}
 		for _, c := range cands {
-			if v, ok := op.Decide(c.Features()); ok {
+			if v, ok := op.Decide(c.Features(), c.Score); ok {
 				dec[c.EventID] = v
 			}
 		}

@@ -75,7 +75,7 @@ tuning/report.md.`,
 	fl.StringVar(&f.policy, "policy", "", "operating-point policy (default: study.yaml)")
 	fl.IntVar(&f.folds, "folds", 0, "subject-grouped cross-validation folds")
 	fl.IntVar(&f.bootstrap, "bootstrap", 0, "subject bootstrap replicates")
-	fl.StringVar(&f.method, "method", tuning.MethodCriterion, "how the automatic rule is fitted: "+tuning.MethodCriterion+" (each cutoff against its criterion's panel majority at one shared ROC point, then that point and k), "+tuning.MethodVerdict+" (each cutoff against the panel's IED verdict, then that point and k) or "+tuning.MethodJoint+" (six cutoffs and k searched together)")
+	fl.StringVar(&f.method, "method", tuning.MethodDefault, "how the automatic rule is fitted: "+tuning.MethodScoreVote+" (each criterion's cutoff against its panel majority and the detector score's against the panel's verdict, at one shared ROC point, then that point and k of the seven votes), "+tuning.MethodCriterion+" (the six criteria alone, k of 6), "+tuning.MethodVerdict+" (each cutoff against the panel's IED verdict, then that point and k) or "+tuning.MethodJoint+" (six cutoffs and k searched together)")
 	fl.Uint64Var(&f.seed, "seed", 0, "random seed (default: study.yaml seed)")
 	return cmd
 }

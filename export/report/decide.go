@@ -21,17 +21,24 @@ func ReadOperatingPoint(path string) (*OperatingPoint, error) {
 }
 
 // Decide applies the operating point's automatic rule to one event's six headline
-// features: the event is positive when at least K criteria meet their cutoffs. A feature
-// that was not measured (NaN) does not meet its cutoff. ok is false when the operating
-// point has no feature cutoffs (a rule on the panel's answers cannot be applied to
-// features).
-func (op *OperatingPoint) Decide(features [6]float64) (positive, ok bool) {
+// features and its detector score: the event is positive when at least K of the rule's
+// cutoffs are met. The score counts only when the rule has a cutoff for it (feature
+// "score", criterion 0). A value that was not measured (NaN) does not meet its cutoff.
+// ok is false when the operating point has no cutoffs (a rule on the panel's answers
+// cannot be applied to features).
+func (op *OperatingPoint) Decide(features [6]float64, score float64) (positive, ok bool) {
 	n, active := 0, 0
 	for _, c := range op.Cutoffs {
-		if c.Criterion < 1 || c.Criterion > 6 {
+		var f float64
+		switch {
+		case c.Criterion == 0 && c.Feature == ScoreFeature:
+			f = score
+		case c.Criterion >= 1 && c.Criterion <= 6:
+			f = features[c.Criterion-1]
+		default:
 			continue
 		}
-		f, v := features[c.Criterion-1], float64(c.Value)
+		v := float64(c.Value)
 		switch c.Met {
 		case ">=":
 			active++

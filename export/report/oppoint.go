@@ -128,9 +128,18 @@ type AlternativeJSON struct {
 	InSample MetricsJSON   `json:"in_sample_optimistic"`
 }
 
-func cutoffsJSON(cs [6]tuning.Cutoff) []CutoffJSON {
+// ScoreFeature names the detector score's cutoff (criterion 0) in the cutoffs list.
+const ScoreFeature = "score"
+
+// cutoffsJSON lists the six criteria's cutoffs and, when the rule has one, the
+// detector score's (criterion 0), which the rule counts as one more vote.
+func cutoffsJSON(cs [6]tuning.Cutoff, score tuning.Cutoff) []CutoffJSON {
+	all := cs[:]
+	if score.Direction != 0 {
+		all = append(all, score)
+	}
 	var out []CutoffJSON
-	for _, c := range cs {
+	for _, c := range all {
 		met := "left out"
 		switch c.Direction {
 		case 1:
@@ -143,7 +152,8 @@ func cutoffsJSON(cs [6]tuning.Cutoff) []CutoffJSON {
 	return out
 }
 
-// CutoffJSON is one criterion's cutoff.
+// CutoffJSON is one criterion's cutoff, or the detector score's (Criterion 0, Feature
+// "score").
 type CutoffJSON struct {
 	Criterion int         `json:"criterion"`
 	Feature   string      `json:"feature"`
@@ -200,9 +210,9 @@ func NewOperatingPoint(res *tuning.Result, meta Meta) OperatingPoint {
 	if op.Warnings == nil {
 		op.Warnings = []string{}
 	}
-	op.Method, op.Headline, op.Cutoffs = f.Method, headlineJSON(f.Headline), cutoffsJSON(f.Cutoffs)
+	op.Method, op.Headline, op.Cutoffs = f.Method, headlineJSON(f.Headline), cutoffsJSON(f.Cutoffs, f.Score)
 	if a := res.Alternative; a != nil {
-		op.Alternative = &AlternativeJSON{a.Method, a.Rule, a.K, cutoffsJSON(a.Cutoffs), headlineJSON(a.Headline), metrics(a.InSample)}
+		op.Alternative = &AlternativeJSON{a.Method, a.Rule, a.K, cutoffsJSON(a.Cutoffs, a.Score), headlineJSON(a.Headline), metrics(a.InSample)}
 	}
 	if f.CV != nil {
 		m := metrics(f.CV.Metrics)

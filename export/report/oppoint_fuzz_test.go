@@ -22,6 +22,6 @@ func FuzzReadOperatingPoint(f *testing.F) {
 		if err != nil {
 			return
 		}
-		op.Decide([6]float64{1, 2, 3, math.NaN(), 0, -1})
+		op.Decide([6]float64{1, 2, 3, math.NaN(), 0, -1}, 0.5)
 	})
 }

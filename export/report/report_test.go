@@ -90,8 +90,11 @@ func TestWrite(t *testing.T) {
 		t.Error("operating point lacks cross-validated, bootstrap or input hashes")
 	}
 	cut := op["cutoffs"].([]any)
-	if len(cut) != 6 {
+	if len(cut) != 7 { // six criteria and the score's vote (the default method)
 		t.Fatalf("%d cutoffs", len(cut))
+	}
+	if c := cut[6].(map[string]any); c["criterion"] != 0.0 || c["feature"] != ScoreFeature || c["met_when"] != ">=" {
+		t.Errorf("the score's cutoff reads %v", c)
 	}
 
 	// sweep.parquet reads back row for row.
@@ -218,12 +221,22 @@ func TestOperatingPointDecide(t *testing.T) {
 		{[6]float64{nan, 0, nan, 0, 0, 0.9}, false},
 	}
 	for _, c := range cases {
-		got, ok := op.Decide(c.f)
+		got, ok := op.Decide(c.f, 100) // no score cutoff: the score never counts
 		if !ok || got != c.want {
 			t.Errorf("Decide(%v) = %v, %v; want %v", c.f, got, ok, c.want)
 		}
 	}
-	if _, ok := (&OperatingPoint{K: 4, Cutoffs: []CutoffJSON{{Criterion: 1, Met: "left out"}}}).Decide([6]float64{}); ok {
+	// With the score as one more vote, one criterion and the score make two.
+	op.Cutoffs = append(op.Cutoffs, CutoffJSON{Criterion: 0, Feature: ScoreFeature, Met: ">=", Value: 0.7})
+	for _, c := range []struct {
+		score float64
+		want  bool
+	}{{0.7, true}, {0.69, false}, {math.NaN(), false}} {
+		if got, ok := op.Decide([6]float64{6, 99, 2.0, 0, 0, 0.5}, c.score); !ok || got != c.want {
+			t.Errorf("Decide(only c1, score %v) = %v, %v; want %v", c.score, got, ok, c.want)
+		}
+	}
+	if _, ok := (&OperatingPoint{K: 4, Cutoffs: []CutoffJSON{{Criterion: 1, Met: "left out"}}}).Decide([6]float64{}, 1); ok {
 		t.Error("a point without cutoffs claimed a decision")
 	}
 }

@@ -38,6 +38,9 @@ func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 	for _, c := range f.Cutoffs {
 		v.Cutoffs = append(v.Cutoffs, fmt.Sprintf("c%d: %s", c.Criterion, c.String()))
 	}
+	if f.Score.Direction != 0 {
+		v.Cutoffs = append(v.Cutoffs, "detector score (one more vote): "+f.Score.String())
+	}
 	for i, c := range []struct{ TP, FP, FN, TN float64 }{
 		{f.InSample.Counts.TP, f.InSample.Counts.FP, f.InSample.Counts.FN, f.InSample.Counts.TN},
 		{f.InSample.Weighted.TP, f.InSample.Weighted.FP, f.InSample.Weighted.FN, f.InSample.Weighted.TN},
