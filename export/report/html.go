@@ -97,8 +97,8 @@ svg{max-width:100%;height:auto}
 {{range .Criteria}}<tr>{{range .}}<td>{{.}}</td>{{end}}</tr>
 {{end}}</table>
 <figure>{{.SVG.criteria}}<figcaption>ROC curve of each criterion's feature against the panel majority for that criterion (design-weighted).</figcaption></figure>
-<h3>At least k criteria met automatically</h3>
-<p class="explain">Cutoffs and k were chosen together; the best rule found for each k is listed, and the policy picked one.</p>
+<h3>At least k cutoffs met automatically</h3>
+<p class="explain">{{.AutoHow}}</p>
 <table>
 <tr><th>k</th><th>Rule</th><th>Sens.</th><th>Spec.</th><th>PPV</th><th>False/h</th><th></th></tr>
 {{range .AutoByK}}<tr>{{range .}}<td>{{.}}</td>{{end}}</tr>

@@ -68,6 +68,7 @@ func writeMarkdown(w io.Writer, res *tuning.Result, agr *consensus.Agreement, me
 	fmt.Fprintln(w, "## Automatic features: cutoffs per criterion")
 	fmt.Fprintln(w)
 	mdTable(w, []string{"Criterion", "Feature", "Events", "AUC (DeLong)", "Cutoff", "Sens. at cutoff", "Spec. at cutoff", "Note"}, v.Criteria)
+	fmt.Fprintf(w, "### At least k cutoffs met automatically\n\n%s\n\n", v.AutoHow)
 	mdTable(w, []string{"k", "Rule", "Sens.", "Spec.", "PPV", "False/h", ""}, v.AutoByK)
 	fmt.Fprintln(w, "## Detector score")
 	fmt.Fprintln(w)

@@ -134,6 +134,9 @@ func TestWrite(t *testing.T) {
 	if !strings.Contains(string(md), res.Final.Rule) {
 		t.Error("report.md lacks the rule")
 	}
+	if !strings.Contains(string(md), res.Final.Analysis) || !strings.Contains(string(md), "detector score (one more vote): score ≥ ") {
+		t.Error("report.md does not say how the automatic rule was fitted or lacks the score's cutoff")
+	}
 }
 
 var tagRe = regexp.MustCompile(`<(/?)(html|head|body|table|tr|figure|ul|h1|h2|h3)\b`)

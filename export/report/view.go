@@ -25,6 +25,7 @@ type view struct {
 	KRows     [][]string
 	Criteria  [][]string
 	AutoByK   [][]string
+	AutoHow   string // how the automatic rule's cutoffs and k were fitted
 	Subsets   [][]string
 	Score     []string // summary lines
 	Agreement [][]string
@@ -35,6 +36,7 @@ func newView(res *tuning.Result, agr *consensus.Agreement, meta Meta) view {
 	v := view{Caution: Caution, Meta: meta, Generated: meta.Generated.UTC().Format(time.RFC3339), Res: res,
 		Policy: res.Policy.String(), Headline: headline(res), Expect: expect(res), ExpectWhy: expectExplain}
 	f := res.Final
+	v.AutoHow = "Fitted as the " + f.Analysis + "; the best rule for each k is listed, and the policy picked one."
 	for _, c := range f.Cutoffs {
 		v.Cutoffs = append(v.Cutoffs, fmt.Sprintf("c%d: %s", c.Criterion, c.String()))
 	}
