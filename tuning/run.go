@@ -201,7 +201,7 @@ func analysisName(method string) string {
 		return "automatic rule: at least k criteria met, six cutoffs and k searched jointly against the reference standard"
 	}
 	if method == MethodScoreVote {
-		return "automatic rule: at least k of seven votes, the six criteria (each cutoff fitted to its criterion's panel majority) and the detector score (its cutoff against the reference standard), all read at one shared point of their ROCs (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
+		return "automatic rule: at least k of seven votes (six criteria, each cutoff fitted to its panel majority; the detector score, fitted to the reference standard), all read at one shared ROC point (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
 	}
 	if method == MethodVerdict {
 		return "automatic rule: at least k criteria met, each cutoff read off its feature's ROC against the reference standard at one shared point (Youden's J or a sensitivity or specificity target), that point and k chosen against the reference standard"
