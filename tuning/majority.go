@@ -112,6 +112,9 @@ func fitMajority(s *evset, p accuracy.Policy, byVerdict, withScore bool) (*autoF
 		}
 		active[j] = true
 	}
+	if !active[scoreSlot] {
+		slots = 6 // no score to vote: the six-criteria rule, k of 6
+	}
 	if active == [votes]bool{} {
 		return nil, warn, &NoDataError{Msg: "no criterion has a panel majority both ways and a varying feature: no automatic rule can be tuned"}
 	}

@@ -1,9 +1,13 @@
 package tuning
 
 import (
+	"context"
 	"encoding/json"
 	"math"
+	"math/rand/v2"
 	"os"
+	"slices"
+	"strings"
 	"testing"
 
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
@@ -137,5 +141,30 @@ func TestScoreVoteByVerdict(t *testing.T) {
 	c := accuracy.Tally(f.decide(s), s.truth, s.weight)
 	if j := c.Sensitivity() + c.Specificity() - 1; math.Abs(j-ref.JVerdict) > 1e-12 {
 		t.Errorf("weighted J of the rule %v, scikit-learn %v", j, ref.JVerdict)
+	}
+}
+
+// A team's own detector may give no score: the default fit then leaves the
+// vote out, says so, and is the six-criteria fit (MethodCriterion), rule
+// for rule.
+func TestScoreVoteWithoutScores(t *testing.T) {
+	ev := simulate(rand.New(rand.NewPCG(7, 1)), 10, 30, 1.2)
+	for i := range ev {
+		ev[i].Score = math.NaN()
+	}
+	run := func(m string) *Result {
+		res, err := Run(context.Background(), Options{Events: ev, RecordingHours: 10, Policy: accuracy.Policy{Kind: accuracy.Youden},
+			Bootstrap: -1, HeadlineReplicates: -1, Method: m, Seed: 2})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return res
+	}
+	def, six := run(""), run(MethodCriterion)
+	if def.Final.Rule != six.Final.Rule || def.Final.Score.Direction != 0 || len(def.Auto.ByK) != 6 {
+		t.Errorf("without scores the default rule %q differs from the six-criteria rule %q", def.Final.Rule, six.Final.Rule)
+	}
+	if !slices.ContainsFunc(def.Warnings, func(w string) bool { return strings.HasPrefix(w, "score: no event with a reference has a measured score") }) {
+		t.Errorf("no warning that the score is left out: %q", def.Warnings)
 	}
 }
