@@ -5,6 +5,7 @@ import (
 	"context"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"os"
 	"path/filepath"
 	"slices"
@@ -203,13 +204,17 @@ func asStored(err error, se **StoredError) bool {
 
 // A refused file is listed by status with its reasons until a file of the
 // same name is accepted.
+// The first file ever handed in may be refused, before the returns folder
+// exists: the refusal is still logged.
 func TestStatusListsRefused(t *testing.T) {
 	o := testOptions(t)
+	os.Remove(o.ReturnsDir)
 	in := t.TempDir()
 	bad := writeReturn(t, in, o.Manifest, 2, func(int) bool { return true }, strings.Repeat("0", 32))
 	o.Files = []string{bad}
-	if _, err := Run(context.Background(), o); err == nil {
-		t.Fatal("accepted a wrong check value")
+	var rej *RejectedError
+	if _, err := Run(context.Background(), o); !errors.As(err, &rej) {
+		t.Fatalf("a wrong check value: %v, want a refusal", err)
 	}
 	st, _ := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
 	if len(st.Refused) != 1 || st.Refused[0].Original != filepath.Base(bad) || !strings.Contains(st.Refused[0].Reason, "check") {
