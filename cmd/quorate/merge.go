@@ -133,7 +133,7 @@ func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, s
 	}
 	if res.Agreement != nil {
 		for _, q := range res.Agreement.Questions {
-			fmt.Fprintf(g.stdout, "  %-8s Fleiss' kappa %.2f (%.2f to %.2f), %s\n", q.Question, q.Fleiss.Value, q.Fleiss.Lo, q.Fleiss.Hi, q.FleissBand)
+			fmt.Fprintf(g.stdout, "  %-8s Fleiss' kappa %s\n", q.Question, kappaText(q.Fleiss, q.FleissBand))
 		}
 	}
 	if rej != nil {
