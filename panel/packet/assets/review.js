@@ -287,13 +287,19 @@
     drawScale(g, G, sc);
   }
 
-  // label writes a text on the traces and keeps its drawn box (the text
-  // metrics of the canvas, HTML Living Standard §4.12.5.1.10) so that a test
-  // can check that no two labels overlap.
+  // label writes a text on a pale box, so that traces running through the
+  // margins do not hide it, and keeps the drawn box (the text metrics of the
+  // canvas, HTML Living Standard §4.12.5.1.10) so that a test can check that
+  // no two labels overlap.
   function label(g, text, x, y) {
-    g.fillText(text, x, y);
     const m = g.measureText(text);
-    geo.texts.push({ text, box: [x - m.actualBoundingBoxLeft, y - m.actualBoundingBoxAscent, x + m.actualBoundingBoxRight, y + m.actualBoundingBoxDescent] });
+    const box = [x - m.actualBoundingBoxLeft, y - m.actualBoundingBoxAscent, x + m.actualBoundingBoxRight, y + m.actualBoundingBoxDescent];
+    const ink = g.fillStyle;
+    g.fillStyle = "rgba(255,255,255,0.85)";
+    g.fillRect(box[0] - 1, box[1] - 1, box[2] - box[0] + 2, box[3] - box[1] + 2);
+    g.fillStyle = ink;
+    g.fillText(text, x, y);
+    geo.texts.push({ text, box });
   }
 
   // scaleOf picks a time bar of at most 150 px (1 s, 0.5 s or 0.2 s) and
