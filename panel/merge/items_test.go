@@ -246,7 +246,7 @@ func TestBlankReturnAndSizeCap(t *testing.T) {
 		t.Fatalf("err %v", err)
 	}
 	st, _ := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
-	if st.Packets[0].State != "out" || st.Packets[0].Owes != 5 {
+	if p := st.Packets[0]; p.State != "out" || p.Owes != 5 || p.Returns != 0 || p.Superseded != 0 || p.Empty != 1 {
 		t.Errorf("blank return: %+v", st.Packets[0])
 	}
 }
