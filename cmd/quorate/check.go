@@ -157,6 +157,10 @@ func checkReturns(s *study.Study, rel func(string) string) []finding {
 	if err != nil {
 		return []finding{{"damaged", rel(filepath.Join(dir, merge.LedgerFile)), err.Error()}}
 	}
+	// The log of refused files lives beside the stored returns; it is read, not hashed.
+	if _, err := merge.ReadRefused(filepath.Join(dir, merge.RefusedFile)); err != nil {
+		out = append(out, finding{"damaged", rel(filepath.Join(dir, merge.RefusedFile)), err.Error()})
+	}
 	entries, err := os.ReadDir(dir)
 	if err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return []finding{{"damaged", rel(dir), err.Error()}}
@@ -164,7 +168,7 @@ func checkReturns(s *study.Study, rel func(string) string) []finding {
 	onDisk := map[string]bool{}
 	for _, e := range entries {
 		name := e.Name()
-		if e.IsDir() || name == merge.LedgerFile || strings.HasPrefix(name, ".") {
+		if e.IsDir() || name == merge.LedgerFile || name == merge.RefusedFile || strings.HasPrefix(name, ".") {
 			continue
 		}
 		onDisk[name] = true

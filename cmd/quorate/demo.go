@@ -274,7 +274,7 @@ func demoSummary(w io.Writer, s *study.Study, recs []archive.Recording, cands []
 	if b, err := os.ReadFile(s.Path(study.ConsensusDir, merge.AgreementJSON)); err == nil && json.Unmarshal(b, &agr) == nil {
 		fmt.Fprintf(w, "Panel       %d simulated raters; Fleiss' kappa with 95 %% intervals resampling subjects:\n", len(agr.Raters))
 		for _, q := range agr.Questions {
-			fmt.Fprintf(w, "              %-8s %.2f (%.2f to %.2f) %s\n", q.Question, q.Fleiss.Value, q.Fleiss.Lo, q.Fleiss.Hi, q.FleissBand)
+			fmt.Fprintf(w, "              %-8s %s\n", q.Question, kappaText(q.Fleiss, q.FleissBand))
 		}
 	}
 	op, err := report.ReadOperatingPoint(s.Path(study.TuningDir, report.PointFile))

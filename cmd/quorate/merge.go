@@ -121,11 +121,24 @@ func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, s
 		Outputs: s.Hash(s.Path(study.ConsensusDir)), Notes: notes, KeepGeneration: res.Events == 0}); rerr != nil {
 		return rerr
 	}
+	// A file that rates no item completely (a sheet sent back untouched) is
+	// stored but is no return: it is said apart.
+	var rated []merge.Entry
+	for _, e := range res.Accepted {
+		if len(e.Items) > 0 {
+			rated = append(rated, e)
+		}
+	}
 	if res.Events > 0 {
 		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored and counting, %d restored, %d no longer counting); consensus on %d events in %s.\n",
-			len(res.Accepted), len(res.Duplicates), len(res.Restored), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
+			len(rated), len(res.Duplicates), len(res.Restored), len(res.Superseded), res.Events, s.Path(study.ConsensusDir))
 	} else {
-		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored and counting); the consensus is unchanged.\n", len(res.Accepted), len(res.Duplicates))
+		fmt.Fprintf(g.stdout, "Merged %d return(s) (%d already stored and counting); the consensus is unchanged.\n", len(rated), len(res.Duplicates))
+	}
+	for _, e := range res.Accepted {
+		if len(e.Items) == 0 && len(e.Incomplete) == 0 {
+			fmt.Fprintf(g.stdout, "  %s (%s, %s): no item rated; nothing merged, every item still owed\n", e.Original, e.Packet, e.Rater)
+		}
 	}
 	for _, o := range res.Owed {
 		fmt.Fprintf(g.stdout, "  %s (%s, %s): %d item(s) only partly rated, not merged and still owed: %s\n",
@@ -133,7 +146,7 @@ func runMerge(ctx context.Context, g *globals, s *study.Study, files []string, s
 	}
 	if res.Agreement != nil {
 		for _, q := range res.Agreement.Questions {
-			fmt.Fprintf(g.stdout, "  %-8s Fleiss' kappa %.2f (%.2f to %.2f), %s\n", q.Question, q.Fleiss.Value, q.Fleiss.Lo, q.Fleiss.Hi, q.FleissBand)
+			fmt.Fprintf(g.stdout, "  %-8s Fleiss' kappa %s\n", q.Question, kappaText(q.Fleiss, q.FleissBand))
 		}
 	}
 	if rej != nil {
@@ -183,6 +196,9 @@ func writeStatus(w io.Writer, st merge.Status) {
 		}
 		if len(p.Incomplete) > 0 {
 			fmt.Fprintf(w, "  of which partly rated: %s\n", strings.Join(p.Incomplete, " "))
+		}
+		if p.Empty > 0 {
+			fmt.Fprintf(w, "%s handed in %d file(s) for %s that rated no item completely: not counted as returns\n", p.Rater, p.Empty, p.Packet)
 		}
 	}
 	for _, r := range st.Refused {

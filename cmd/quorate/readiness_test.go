@@ -72,10 +72,27 @@ func TestTuneWarnsOfOutstandingPackets(t *testing.T) {
 	if !strings.Contains(errs.String(), want) {
 		t.Errorf("stderr lacks %q:\n%s", want, errs.String())
 	}
+	if n := strings.Count(errs.String(), want); n != 1 {
+		t.Errorf("stderr says %q %d times, want once", want, n)
+	}
 	for _, f := range []string{report.HTMLFile, report.MarkdownFile, report.PointFile} {
 		b, err := os.ReadFile(filepath.Join(st, study.TuningDir, f))
 		if err != nil || !bytes.Contains(b, []byte(want)) {
 			t.Errorf("%s lacks %q (%v)", f, want, err)
 		}
+	}
+}
+
+// A tune that then fails has still said what state the panel is in.
+func TestTuneWarnsBeforeFailing(t *testing.T) {
+	st := panelOf(t, 2)
+	var out, errs bytes.Buffer
+	root := newRoot(&globals{argv: []string{"quorate", "tune"}, stdout: &out, stderr: &errs})
+	root.SetArgs([]string{"--quiet", "--study", st, "tune", "--folds", "1"})
+	if err := root.Execute(); err == nil || isWarnings(err) {
+		t.Fatalf("tune --folds 1: %v, want an error", err)
+	}
+	if want := "1 of 3 packets are outstanding"; !strings.Contains(errs.String(), want) {
+		t.Errorf("stderr lacks %q:\n%s", want, errs.String())
 	}
 }

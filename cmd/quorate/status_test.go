@@ -100,8 +100,12 @@ func TestStatusCountsOwedAndRefused(t *testing.T) {
 	if _, err := run(t, "--study", st, "merge", f1); err == nil || !strings.Contains(err.Error(), "item "+badCode) {
 		t.Errorf("merge of a return with \"maybe\": %v, want a refusal naming item %s", err, badCode)
 	}
-	if _, err := run(t, "--study", st, "merge", f2); err != nil && !isWarnings(err) {
+	out, err = run(t, "--study", st, "merge", f2)
+	if err != nil && !isWarnings(err) {
 		t.Logf("merge of a blank return: %v", err)
+	}
+	if !strings.Contains(out, "Merged 0 return(s)") || !strings.Contains(out, "no item rated; nothing merged") {
+		t.Errorf("merge of a blank return says:\n%s", out)
 	}
 	out, err = run(t, "--study", st, "status")
 	if err != nil {
@@ -115,13 +119,14 @@ func TestStatusCountsOwedAndRefused(t *testing.T) {
 		"  of which partly rated: " + halfCode,
 		"Refused " + p1.Packet + ".json",
 		"item " + badCode + ": c4",
+		p2.Rater + " handed in 1 file(s) for " + p2.Packet + " that rated no item completely: not counted as returns",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("status lacks %q:\n%s", want, out)
 		}
 	}
 	for _, p := range []packet.ManifestEntry{p1, p2} {
-		if !regexp.MustCompile(`(?m)^` + regexp.QuoteMeta(p.Packet) + `\s+` + regexp.QuoteMeta(p.Rater) + `\s+1\s+out\s`).MatchString(out) {
+		if !regexp.MustCompile(`(?m)^` + regexp.QuoteMeta(p.Packet) + `\s+` + regexp.QuoteMeta(p.Rater) + `\s+1\s+out\s+\d+\s+\d+\s+0\s+0\s`).MatchString(out) {
 			t.Errorf("packet %s (refused or blank return) not listed as out:\n%s", p.Packet, out)
 		}
 	}

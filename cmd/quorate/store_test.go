@@ -249,8 +249,22 @@ func TestConcurrentMergeOneEntry(t *testing.T) {
 // before a report goes out.
 func TestCheck(t *testing.T) {
 	st := demoStudy(t)
+	// A refused file is logged in returns/refused.jsonl, beside the stored returns: a
+	// log, not a stored return (check once called it changed and not in the ledger).
+	junk := filepath.Join(t.TempDir(), "junk.json")
+	os.WriteFile(junk, []byte(`{"format": "something else"}`), 0o644)
+	if _, err := run(t, "--study", st, "merge", junk); err == nil {
+		t.Fatal("merge accepted a file that is no return")
+	}
 	if out, err := run(t, "--study", st, "check"); err != nil || !strings.Contains(out, "whole and of one generation") {
-		t.Fatalf("check of the demo study: %v\n%s", err, out)
+		t.Fatalf("check of the demo study with a refused file: %v\n%s", err, out)
+	}
+	refused := filepath.Join(st, study.ReturnsDir, merge.RefusedFile)
+	if f, err := os.OpenFile(refused, os.O_APPEND|os.O_WRONLY, 0); err != nil {
+		t.Fatal(err)
+	} else {
+		f.WriteString(`{"time": "torn`)
+		f.Close()
 	}
 	stored, _ := filepath.Glob(filepath.Join(st, study.ReturnsDir, "*.json"))
 	os.Chmod(stored[0], 0o644)
@@ -273,6 +287,7 @@ func TestCheck(t *testing.T) {
 	}
 	for _, want := range []string{
 		"damaged  returns/" + filepath.Base(stored[0]) + ": its content's SHA-256",
+		"damaged  returns/" + merge.RefusedFile + ": ",
 		"damaged  consensus/consensus.parquet: ",
 		"exposed  .quorate/secret: mode -rw-r--r--",
 		"stale    packets: ",

@@ -141,6 +141,11 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 		return err
 	}
 	ready := panelReadiness(s, evs, agr)
+	// The panel's state is said before tuning, so that it is said also when
+	// tuning then fails on a weak or incomplete panel.
+	for _, w := range ready.Warnings() {
+		g.warn("tune", "%s", w)
+	}
 	res, err := tuning.Run(ctx, tuning.Options{Events: events, RecordingHours: hours, Policy: pol,
 		Folds: f.folds, Bootstrap: f.bootstrap, Method: f.method, Seed: f.seed, ReferenceName: refName, Progress: g.progress})
 	if err != nil {
@@ -149,6 +154,7 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 		}
 		return err
 	}
+	own := res.Warnings
 	res.Warnings = append(ready.Warnings(), res.Warnings...)
 	inputs := s.Hash(consPath, drawPath, indexPath, s.Path(study.CandidatesDir))
 	hashes := map[string]string{}
@@ -159,7 +165,7 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	if err := report.Write(s.Path(study.TuningDir), res, agr, meta); err != nil {
 		return err
 	}
-	for _, w := range res.Warnings {
+	for _, w := range own {
 		g.warn("tune", "%s", w)
 	}
 	seed := f.seed

@@ -5,6 +5,7 @@ import (
 	"context"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"os"
 	"path/filepath"
 	"slices"
@@ -203,13 +204,18 @@ func asStored(err error, se **StoredError) bool {
 
 // A refused file is listed by status with its reasons until a file of the
 // same name is accepted.
+// The first file ever handed in may be refused, before the returns folder
+// exists: the refusal is still logged. A name that names no file is said,
+// not logged.
 func TestStatusListsRefused(t *testing.T) {
 	o := testOptions(t)
+	os.Remove(o.ReturnsDir)
 	in := t.TempDir()
 	bad := writeReturn(t, in, o.Manifest, 2, func(int) bool { return true }, strings.Repeat("0", 32))
-	o.Files = []string{bad}
-	if _, err := Run(context.Background(), o); err == nil {
-		t.Fatal("accepted a wrong check value")
+	o.Files = []string{bad, filepath.Join(in, "no-such-file.json")}
+	var rej *RejectedError
+	if _, err := Run(context.Background(), o); !errors.As(err, &rej) || len(rej.Errs) != 2 {
+		t.Fatalf("a wrong check value and a missing file: %v, want two refusals", err)
 	}
 	st, _ := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
 	if len(st.Refused) != 1 || st.Refused[0].Original != filepath.Base(bad) || !strings.Contains(st.Refused[0].Reason, "check") {
@@ -241,7 +247,7 @@ func TestBlankReturnAndSizeCap(t *testing.T) {
 		t.Fatalf("err %v", err)
 	}
 	st, _ := GetStatus(o.Manifest, o.Key, o.ReturnsDir, o.ConsensusDir)
-	if st.Packets[0].State != "out" || st.Packets[0].Owes != 5 {
+	if p := st.Packets[0]; p.State != "out" || p.Owes != 5 || p.Returns != 0 || p.Superseded != 0 || p.Empty != 1 {
 		t.Errorf("blank return: %+v", st.Packets[0])
 	}
 }

@@ -7,6 +7,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"slices"
@@ -125,6 +126,9 @@ func Run(ctx context.Context, o Options) (*Result, error) {
 			}
 		}
 		res.Rejected = append(res.Rejected, err)
+		if errors.Is(err, fs.ErrNotExist) {
+			continue // a mistyped name: said now, but no file was handed in to log
+		}
 		refused = append(refused, Refusal{Time: o.Now().UTC(), Original: filepath.Base(f), Reason: err.Error()})
 	}
 	if err := appendRefused(filepath.Join(o.ReturnsDir, RefusedFile), refused); err != nil {

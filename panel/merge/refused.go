@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"os"
+	"path/filepath"
 	"time"
 )
 
@@ -60,6 +61,10 @@ func appendJSONL[T any](path string, rows []T) error {
 			return err
 		}
 		buf = append(append(buf, b...), '\n')
+	}
+	// The folder may not exist yet: the first file ever handed in may be refused.
+	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
+		return err
 	}
 	f, err := os.OpenFile(path, os.O_WRONLY|os.O_APPEND|os.O_CREATE, 0o644)
 	if err != nil {

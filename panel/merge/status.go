@@ -20,8 +20,9 @@ type PacketStatus struct {
 	Owes       int      `json:"owes"`       // items with no counted answer
 	OwedItems  []string `json:"owed_items"` // their codes, in packet order
 	Incomplete []string `json:"incomplete"` // owed items some return filled in only partly
-	Returns    int      `json:"returns"`    // distinct files merged for it
+	Returns    int      `json:"returns"`    // distinct files merged for it that gave some item a value
 	Superseded int      `json:"superseded"` // of which count for no item any more
+	Empty      int      `json:"empty"`      // files handed in that gave no item a value (blank, or only partly filled items): no return
 }
 
 // Status is the state of the panel's work. Items counts every showing
@@ -57,13 +58,18 @@ func GetStatus(m *packet.Manifest, key []packet.KeyRow, returnsDir, consensusDir
 	for _, e := range counting {
 		now[e.SHA256] = true
 	}
-	files := map[string]map[string]bool{} // packet → stored files
+	files := map[string]map[string]bool{} // packet → stored files that gave items
+	empty := map[string]map[string]bool{} // packet → stored files that gave none
 	partly := map[ItemKey]bool{}
 	for _, e := range ledger {
 		if files[e.Packet] == nil {
-			files[e.Packet] = map[string]bool{}
+			files[e.Packet], empty[e.Packet] = map[string]bool{}, map[string]bool{}
 		}
-		files[e.Packet][e.SHA256] = true
+		if len(e.Items) > 0 || e.Answered > 0 {
+			files[e.Packet][e.SHA256] = true
+		} else {
+			empty[e.Packet][e.SHA256] = true
+		}
 		for _, it := range e.Incomplete {
 			partly[ItemKey{e.Packet, it}] = true
 		}
@@ -74,6 +80,11 @@ func GetStatus(m *packet.Manifest, key []packet.KeyRow, returnsDir, consensusDir
 		for h := range files[p.Packet] {
 			if !now[h] {
 				ps.Superseded++
+			}
+		}
+		for h := range empty[p.Packet] {
+			if !files[p.Packet][h] {
+				ps.Empty++
 			}
 		}
 		for _, it := range p.Items {

@@ -8,6 +8,7 @@ import (
 	"net/url"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -201,6 +202,37 @@ func TestReviewPageInBrowser(t *testing.T) {
 		must(os.WriteFile(filepath.Join(shots, fmt.Sprintf("review-%dx%d.png", w, h)), png, 0o644))
 	}
 
+	// Seconds from the event label the grid, and no two labels on the
+	// traces overlap (their drawn boxes, from the canvas's text metrics).
+	secLabel := regexp.MustCompile(`^(0|[+\x{2212}]\d+(\.\d)?) s$`)
+	labelsApart := func(where string) {
+		t.Helper()
+		type text struct {
+			Text string     `json:"text"`
+			Box  [4]float64 `json:"box"`
+		}
+		var ts []text
+		must(json.Unmarshal([]byte(eval("JSON.stringify(window.quorate.texts())").(string)), &ts))
+		secs, scale := 0, 0
+		for i, a := range ts {
+			if secLabel.MatchString(a.Text) {
+				secs++
+			}
+			if a.Text == "50 µV" || strings.HasSuffix(a.Text, " s") && !secLabel.MatchString(a.Text) || strings.HasSuffix(a.Text, " ms") {
+				scale++
+			}
+			for _, b := range ts[i+1:] {
+				if a.Box[0] < b.Box[2] && b.Box[0] < a.Box[2] && a.Box[1] < b.Box[3] && b.Box[1] < a.Box[3] {
+					t.Errorf("%s: labels %q %v and %q %v overlap", where, a.Text, a.Box, b.Text, b.Box)
+				}
+			}
+		}
+		if secs < 2 || scale < 2 {
+			t.Errorf("%s: %d seconds labels and %d scale labels among %d texts, want ≥ 2 of each", where, secs, scale, len(ts))
+		}
+	}
+	labelsApart("at the packet's time base")
+
 	// 20 items with the keyboard alone. Digits 1–6 set a criterion present
 	// (a second press absent, a third cannot judge); a marks the rest absent;
 	// e, n, x give the verdict; c then a digit the confidence; j or Page Down
@@ -291,6 +323,7 @@ func TestReviewPageInBrowser(t *testing.T) {
 	if tb := eval("window.quorate.state().tb").(float64); math.Abs((xb-xa)-tb*96/25.4) > 0.01 {
 		t.Errorf("1 s spans %.2f px at %g mm/s, want %.2f", xb-xa, tb, tb*96/25.4)
 	}
+	labelsApart("at 120 mm/s")
 	width := spikeN / bRate * 1000
 	c := drag(spikeAt, spikeAt+spikeN/bRate)
 	if ms := c["ms"].(float64); math.Abs(ms-width) > 1000/bRate {
@@ -358,7 +391,9 @@ func TestReviewPageInBrowser(t *testing.T) {
 	if tb := eval("window.quorate.state().tb"); tb != 15.0 {
 		t.Errorf("time base %v after six presses of ',', want 15", tb)
 	}
+	labelsApart("at 15 mm/s, 1366×768")
 	layout(1920, 1080)
+	labelsApart("at 15 mm/s, 1920×1080")
 
 	path := filepath.Join(downloads, entry.Packet+".json")
 	var data []byte
@@ -403,25 +438,27 @@ func TestReviewPageInBrowser(t *testing.T) {
 		}
 	}
 
-	// The returns parser takes the complete answers the page wrote (the
-	// cannot-judge and half-rated ones are the parser's own tests' matter).
-	var full map[string]any
-	must(json.Unmarshal(data, &full))
-	var keep []any
-	for _, a := range full["answers"].([]any) {
-		m := a.(map[string]any)
-		if m["item"] != half && !strings.Contains(fmt.Sprint(m), C) {
-			keep = append(keep, m)
-		}
-	}
-	full["answers"] = keep
-	b, _ := json.Marshal(full)
-	r, err := returns.Parse(filepath.Base(path), b, &res.Manifest)
+	// The returns parser takes the file the page wrote as it is: the 20
+	// complete items (cannot-judge answers included) merge, and the
+	// half-rated one is listed as incomplete, by its code, not refused.
+	r, err := returns.Parse(filepath.Base(path), data, &res.Manifest)
 	if err != nil {
 		t.Fatalf("saved file refused: %v", err)
 	}
-	if len(r.Answers) != len(keep) || r.Answers[0].Criteria[0] != returns.Present || r.Answers[0].Confidence != 4 {
-		t.Errorf("parsed %d answers, first %+v", len(r.Answers), r.Answers[0])
+	if len(r.Answers) != 20 || len(r.Incomplete) != 1 || r.Incomplete[0] != half {
+		t.Errorf("parsed %d complete answers, incomplete %v; want 20 and [%s]", len(r.Answers), r.Incomplete, half)
+	}
+	cj := 0
+	for _, a := range r.Answers {
+		if a.Verdict == returns.VerdictCannotJudge {
+			cj++
+		}
+		if a.Item == entry.Items[0] && (a.Criteria[0] != returns.Present || a.Confidence != 4) {
+			t.Errorf("first item parsed as %+v", a)
+		}
+	}
+	if cj != 5 {
+		t.Errorf("%d cannot-judge verdicts parsed, want 5", cj)
 	}
 }
 

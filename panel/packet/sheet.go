@@ -14,7 +14,7 @@ var SheetColumns = []string{"packet", "check", "rater", "item", "c1", "c2", "c3"
 var SheetHelp = []string{
 	"c1 to c6: present (p / yes / y / 1) or absent (a / no / n / 0) or cannot-judge (cj / ?)",
 	"verdict: epileptiform (e) or not-epileptiform (ne / n) or cannot-judge (cj / ?)",
-	"confidence: 1 to 5 or empty. An item partly filled in stays owed; fill every criterion and the verdict.",
+	"confidence: 1 to 5 or empty. An item partly filled in stays owed: fill every criterion and the verdict.",
 }
 
 // sheet renders sheet.csv: one row per item code in the rater's order, the

@@ -36,12 +36,13 @@ func withAlias(m, more map[string]string) map[string]string {
 }
 
 // sniffSeparator picks the field separator of a sheet from its header line
-// (the first line not starting with '#'): the most frequent of comma,
-// semicolon and tab outside quotes. Spreadsheets in locales with a decimal
-// comma save CSV with semicolons; exported tables often use tabs.
+// (the first line that is neither blank nor a comment line): the most
+// frequent of comma, semicolon and tab outside quotes. Spreadsheets in
+// locales with a decimal comma save CSV with semicolons; exported tables
+// often use tabs.
 func sniffSeparator(data []byte) rune {
 	for line := range bytes.Lines(data) {
-		if bytes.HasPrefix(bytes.TrimLeft(line, " "), []byte("#")) || len(bytes.TrimSpace(line)) == 0 {
+		if commentLine(line) || len(bytes.TrimSpace(line)) == 0 {
 			continue
 		}
 		n := map[rune]int{}
@@ -91,6 +92,9 @@ func readCSV(data []byte, add func(int, string, string, string)) (h head, out []
 			return h, out
 		}
 		line, _ := r.FieldPos(0)
+		if commentRecord(rec) {
+			continue // a comment line as a spreadsheet saves it: quoted, padded with empty cells
+		}
 		if col == nil {
 			header = rec
 			col = readHeader(rec, line, add)
@@ -173,6 +177,22 @@ func readHeader(rec []string, line int, add func(int, string, string, string)) m
 func hasKey(m map[string]int, k string) bool {
 	_, ok := m[k]
 	return ok
+}
+
+// commentLine reports whether a line of the sheet is one of its comment
+// lines: '#' first, after blanks and an opening quote (a spreadsheet quotes a
+// cell that holds its separator).
+func commentLine(line []byte) bool {
+	l := bytes.TrimLeft(line, " \t")
+	l = bytes.TrimPrefix(l, []byte(`"`))
+	return bytes.HasPrefix(l, []byte("#"))
+}
+
+// commentRecord reports whether a record is a comment line that a
+// spreadsheet re-saved: its first cell starts with '#' and every other cell
+// is empty. (Unquoted '#' lines never reach here: the reader skips them.)
+func commentRecord(rec []string) bool {
+	return len(rec) > 0 && strings.HasPrefix(strings.TrimSpace(rec[0]), "#") && blankRecord(rec[1:])
 }
 
 func blankRecord(rec []string) bool {

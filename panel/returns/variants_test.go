@@ -44,6 +44,22 @@ func sheetAs(t *testing.T, comma rune, crlf, bom bool, comments []string, row0, 
 	return buf.Bytes()
 }
 
+// resaved renders the sheet's own comment lines as a spreadsheet saves them
+// after reading them as one cell each: padded with empty cells to the
+// header's width, and quoted where the cell holds the separator.
+func resaved(comma rune, lines ...string) []string {
+	var out []string
+	for _, l := range lines {
+		var buf bytes.Buffer
+		w := csv.NewWriter(&buf)
+		w.Comma = comma
+		w.Write(append([]string{"# " + l}, make([]string, len(packet.SheetColumns)-1)...))
+		w.Flush()
+		out = append(out, strings.TrimRight(buf.String(), "\n"))
+	}
+	return out
+}
+
 func cells(crit, verdict string) map[string]string {
 	m := map[string]string{"verdict": verdict}
 	for k := 1; k <= 6; k++ {
@@ -72,6 +88,8 @@ func TestSheetVariants(t *testing.T) {
 		{"comma, BOM, LF", sheetAs(t, ',', false, true, nil, cells("1", "e"), cells("0", "n")), P, A, Epileptiform, NotEpileptiform},
 		{"header comment lines kept", sheetAs(t, ',', true, false, std, cells("p", "e"), cells("a", "n")), P, A, Epileptiform, NotEpileptiform},
 		{"header comment lines, semicolon, BOM", sheetAs(t, ';', true, true, std, cells("p", "e"), cells("a", "n")), P, A, Epileptiform, NotEpileptiform},
+		{"header comment lines re-saved by a spreadsheet, semicolon, BOM", sheetAs(t, ';', true, true, resaved(';', packet.SheetHelp...), cells("yes", "e"), cells("no", "n")), P, A, Epileptiform, NotEpileptiform},
+		{"header comment lines re-saved, one quoted", sheetAs(t, ';', true, true, resaved(';', "a note; with the separator", "another"), cells("Y", "E"), cells("N", "NE")), P, A, Epileptiform, NotEpileptiform},
 		{"cannot judge (hyphen, space)", sheetAs(t, ',', true, false, nil, cells("cannot-judge", "cannot judge"), cells("Cannot Judge", "cannot-judge")), CJ, CJ, VerdictCannotJudge, VerdictCannotJudge},
 		{"cannot judge (cj, ?)", sheetAs(t, ';', true, true, nil, cells("cj", "?"), cells("?", "CJ")), CJ, CJ, VerdictCannotJudge, VerdictCannotJudge},
 	}
@@ -167,6 +185,11 @@ func TestSizeCap(t *testing.T) {
 // lists is accepted, each meaning what the line says.
 func TestSheetListsAcceptedValues(t *testing.T) {
 	for _, l := range packet.SheetHelp {
+		// No separator or quote in a comment line, so a spreadsheet keeps
+		// each in one cell, unquoted, whatever separator it saves with.
+		if strings.ContainsAny(l, ",;\t\"") {
+			t.Errorf("comment line %q holds a separator or quote", l)
+		}
 		if !bytes.Contains(fixture.sheet, []byte("# "+l+"\r\n")) {
 			t.Errorf("sheet.csv lacks the comment line %q", l)
 		}

@@ -267,7 +267,8 @@
     g.restore();
     // Channel labels.
     g.fillStyle = "#16202a"; g.font = "12px system-ui, sans-serif"; g.textBaseline = "middle"; g.textAlign = "right";
-    geo.labels.forEach((l, r) => g.fillText(l, LABEL_W - 6, baseOf(G, r)));
+    geo.texts = [];
+    geo.labels.forEach((l, r) => label(g, l, LABEL_W - 6, baseOf(G, r)));
     // Time from the event along the bottom edge, every 2 s, 1 s or 0.2 s
     // so that labels stay about 50 px or more apart.
     const sc = scaleOf(G);
@@ -279,11 +280,26 @@
       if (it.eventAt + dt < -1e-9) continue;
       if (x < LABEL_W + 12 || x > sc.x0 - 24) continue; // clear of the scale bars
       const v = Math.abs(dt) < 1e-9 ? "0 s" : (dt > 0 ? "+" : "\u2212") + (step < 1 ? Math.abs(dt).toFixed(1) : Math.abs(dt)) + " s";
-      g.fillText(v, x, yb + 4);
+      label(g, v, x, yb + 4);
     }
     g.textAlign = "left";
-    g.fillText("Time from the event. Grey: context outside the rated window.", LABEL_W + 2, 2);
+    label(g, "Time from the event. Grey: context outside the rated window.", LABEL_W + 2, 2);
     drawScale(g, G, sc);
+  }
+
+  // label writes a text on a pale box, so that traces running through the
+  // margins do not hide it, and keeps the drawn box (the text metrics of the
+  // canvas, HTML Living Standard §4.12.5.1.10) so that a test can check that
+  // no two labels overlap.
+  function label(g, text, x, y) {
+    const m = g.measureText(text);
+    const box = [x - m.actualBoundingBoxLeft, y - m.actualBoundingBoxAscent, x + m.actualBoundingBoxRight, y + m.actualBoundingBoxDescent];
+    const ink = g.fillStyle;
+    g.fillStyle = "rgba(255,255,255,0.85)";
+    g.fillRect(box[0] - 1, box[1] - 1, box[2] - box[0] + 2, box[3] - box[1] + 2);
+    g.fillStyle = ink;
+    g.fillText(text, x, y);
+    geo.texts.push({ text, box });
   }
 
   // scaleOf picks a time bar of at most 150 px (1 s, 0.5 s or 0.2 s) and
@@ -305,9 +321,9 @@
     g.beginPath(); g.moveTo(xr - barT, yb); g.lineTo(xr, yb); g.lineTo(xr, yb - barV); g.stroke();
     g.fillStyle = "#16202a"; g.font = "11px system-ui, sans-serif";
     g.textAlign = "center"; g.textBaseline = "top";
-    g.fillText(sc.secs >= 1 ? "1 s" : sc.secs * 1000 + " ms", xr - barT / 2, yb + 3);
+    label(g, sc.secs >= 1 ? "1 s" : sc.secs * 1000 + " ms", xr - barT / 2, yb + 3);
     g.textAlign = "left"; g.textBaseline = "middle";
-    g.fillText("50 µV", xr + 4, yb - barV / 2);
+    label(g, "50 µV", xr + 4, yb - barV / 2);
   }
 
   // ---- caliper --------------------------------------------------------------
@@ -700,6 +716,7 @@
     decode: (i) => decode(i).then((d) => d.chans.map((c) => Array.from(c))),
     state: () => JSON.parse(JSON.stringify(st)),
     settled: () => later.then(() => true), // the last redraw has finished
+    texts: () => (geo ? geo.texts : []),
     caliper: () => (view.cal ? { ms: view.cal.ms, uv: view.cal.uv, row: view.cal.row, samples: view.cal.j1 - view.cal.j0 } : null),
     // at gives the page position of time t (s from the excerpt's start) on row r.
     at: (t, r) => { const b = $("traces").getBoundingClientRect(); return { x: b.left + xOf(geo, t), y: b.top + baseOf(geo, r) }; },
