@@ -114,26 +114,48 @@ func NewFitter(electrodes []Vec3, head Sphere, opts FitOptions) (*Fitter, error)
 // carLead fills dst with the common-average-referenced lead vectors at pos
 // and returns their Gram matrix Σ l lᵀ.
 func (f *Fitter) carLead(dst []Vec3, pos Vec3) [3][3]float64 {
-	var mean Vec3
-	for i, e := range f.electrodes {
-		dst[i] = f.bs.leadOnScalp(e, pos)
-		mean = mean.Add(dst[i])
-	}
+	m, _ := f.carLeadProject(dst, pos, nil)
+	return m
+}
+
+// carLeadProject is carLead that also returns Lᵀw (project) for the
+// referenced lead vectors when w is not nil, accumulated in the same loop
+// and the same order as project adds them.
+func (f *Fitter) carLeadProject(dst []Vec3, pos Vec3, w []float64) ([3][3]float64, Vec3) {
+	mean := f.bs.leadsOnScalp(dst, f.electrodes, pos)
 	mean = mean.Scale(1 / float64(len(dst)))
 	// the Gram matrix's six distinct sums, each in the same order as a
 	// full 3×3 loop would add them, so the result is the same bit for bit
 	var m00, m01, m02, m11, m12, m22 float64
-	for i := range dst {
-		l := dst[i].Sub(mean)
-		dst[i] = l
-		m00 += l[0] * l[0]
-		m01 += l[0] * l[1]
-		m02 += l[0] * l[2]
-		m11 += l[1] * l[1]
-		m12 += l[1] * l[2]
-		m22 += l[2] * l[2]
+	var b0, b1, b2 float64
+	if w != nil {
+		w = w[:len(dst)]
+		for i := range dst {
+			l := dst[i].Sub(mean)
+			dst[i] = l
+			m00 += l[0] * l[0]
+			m01 += l[0] * l[1]
+			m02 += l[0] * l[2]
+			m11 += l[1] * l[1]
+			m12 += l[1] * l[2]
+			m22 += l[2] * l[2]
+			b0 += l[0] * w[i]
+			b1 += l[1] * w[i]
+			b2 += l[2] * w[i]
+		}
+	} else {
+		for i := range dst {
+			l := dst[i].Sub(mean)
+			dst[i] = l
+			m00 += l[0] * l[0]
+			m01 += l[0] * l[1]
+			m02 += l[0] * l[2]
+			m11 += l[1] * l[1]
+			m12 += l[1] * l[2]
+			m22 += l[2] * l[2]
+		}
 	}
-	return [3][3]float64{{m00, m01, m02}, {m01, m11, m12}, {m02, m12, m22}}
+	return [3][3]float64{{m00, m01, m02}, {m01, m11, m12}, {m02, m12, m22}}, Vec3{b0, b1, b2}
 }
 
 // Fit fits one equivalent dipole to v (one value per electrode, any
@@ -204,12 +226,11 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		if ex := p.Norm() - f.rmax; ex > 0 {
 			return 1 + 100*ex/R
 		}
-		m := f.carLead(lead, p)
+		m, b := f.carLeadProject(lead, p, w)
 		inv, ok := inverse3(m)
 		if !ok {
 			return 1
 		}
-		b := project(lead, w)
 		return 1 - quad(inv, b)/ss
 	}
 	best := cand{rv: math.Inf(1)}
