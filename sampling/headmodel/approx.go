@@ -56,7 +56,21 @@ func (s Sphere) BergScherg() (BergScherg, error) {
 var bsCache = struct {
 	sync.Mutex
 	m map[string]BergScherg
-}{m: map[string]BergScherg{}}
+}{m: map[string]BergScherg{
+	fmt.Sprint(DefaultHead().Radii, DefaultHead().Sigma): defaultBergScherg,
+}}
+
+// defaultBergScherg is fitBergScherg's result for DefaultHead, written
+// with the shortest decimals that read back to the same float64 values,
+// so that a process need not spend the fit's tenths of a second on the
+// head every detection uses; TestDefaultBergSchergTabulated fits it again
+// and requires the same values bit for bit.
+var defaultBergScherg = BergScherg{
+	Lambda: [3]float64{0.35668086657268433, 0.23807887850570728, 0.06615949865556886},
+	Mu:     [3]float64{0.44260321741222247, 0.7687429854154715, 0.9898563436487641},
+	R:      0.09,
+	Sigma:  0.33,
+}
 
 func (s Sphere) fitBergScherg() (BergScherg, error) {
 	R := s.Radius()

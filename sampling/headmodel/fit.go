@@ -217,7 +217,10 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		b := project(g.lead, w)
 		cands = append(cands, cand{g.pos, 1 - quad(g.inv, b)/ss})
 	}
-	sort.Slice(cands, func(a, b int) bool { return cands[a].rv < cands[b].rv })
+	starts := min(f.opts.Starts, len(cands))
+	if !smallestFirst(cands, starts, func(c cand) float64 { return c.rv }) {
+		sort.Slice(cands, func(a, b int) bool { return cands[a].rv < cands[b].rv })
+	}
 
 	lead := make([]Vec3, n)
 	R := f.head.Radius()
@@ -234,7 +237,7 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		return 1 - quad(inv, b)/ss
 	}
 	best := cand{rv: math.Inf(1)}
-	for s := 0; s < f.opts.Starts && s < len(cands); s++ {
+	for s := 0; s < starts; s++ {
 		c := cands[s]
 		res := nelderMead3(obj, c.pos, 0.5*f.opts.GridStep*R, f.opts.MaxEval, 1e-9, 8)
 		if !res.ok {
@@ -264,6 +267,42 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		GOF:         1 - mat.Dot(&res, &res)/ss,
 		Orientation: Classify(best.pos, mom, f.head.Radii[0]),
 	}, nil
+}
+
+// smallestFirst moves the k elements of c with the smallest keys to
+// c[:k], in increasing order, and reports true, when that order is the
+// only one a sort by key could give: the k smallest keys are distinct, no
+// other key equals the k-th, and no key is NaN. Otherwise (ties or NaN,
+// where an unstable sort's order depends on its algorithm) it reports
+// false, having only permuted c, and the caller sorts. A partial selection
+// by insertion costs O(k·len(c)) comparisons, against O(len(c)·log len(c))
+// for a sort.
+func smallestFirst[T any](c []T, k int, key func(T) float64) bool {
+	if k <= 0 {
+		return true
+	}
+	for i := 0; i < k; i++ {
+		// move the smallest of c[i:] to i; a tie with it is left behind
+		m := i
+		for j := i + 1; j < len(c); j++ {
+			if key(c[j]) < key(c[m]) {
+				m = j
+			}
+		}
+		c[i], c[m] = c[m], c[i]
+	}
+	last := key(c[k-1])
+	for i := 0; i < k; i++ {
+		if x := key(c[i]); x != x || (i > 0 && !(key(c[i-1]) < x)) {
+			return false
+		}
+	}
+	for _, x := range c[k:] {
+		if x := key(x); x != x || !(x > last) {
+			return false
+		}
+	}
+	return true
 }
 
 // project returns Lᵀw for the lead vectors l.

@@ -269,3 +269,50 @@ func TestLeadsOnScalpBitExact(t *testing.T) {
 		}
 	}
 }
+
+// TestSmallestFirst checks the grid stage's partial selection against
+// sort.Slice (the full sort it replaces): whenever it reports success its
+// first k elements are the sorted slice's first k, and it reports failure
+// exactly when the k smallest keys are not distinct, another key equals
+// the k-th, or a key is NaN.
+func TestSmallestFirst(t *testing.T) {
+	rng := rand.New(rand.NewPCG(17, 6))
+	id := func(x float64) float64 { return x }
+	for trial := range 3000 {
+		n := 1 + rng.IntN(40)
+		k := rng.IntN(min(n, 4) + 1)
+		c := make([]float64, n)
+		for i := range c {
+			c[i] = rng.NormFloat64()
+			if trial%3 == 1 {
+				c[i] = float64(rng.IntN(6)) // many ties
+			}
+		}
+		if trial%7 == 2 {
+			c[rng.IntN(n)] = math.NaN()
+		}
+		want := append([]float64(nil), c...)
+		sort.Float64s(want)
+		unique := true
+		for i := 0; i < k; i++ {
+			if math.IsNaN(want[i]) || (i+1 < n && !(want[i] < want[i+1])) {
+				unique = false
+			}
+		}
+		for _, x := range c {
+			unique = unique && !math.IsNaN(x)
+		}
+		got := append([]float64(nil), c...)
+		ok := smallestFirst(got, k, id)
+		if ok != (unique || k == 0) {
+			t.Fatalf("%v, k %d: reported %v, unique order %v", c, k, ok, unique)
+		}
+		if ok {
+			for i := 0; i < k; i++ {
+				if got[i] != want[i] {
+					t.Fatalf("%v, k %d: %v, sorted %v", c, k, got[:k], want[:k])
+				}
+			}
+		}
+	}
+}
