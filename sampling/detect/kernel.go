@@ -125,16 +125,46 @@ func (b *bank) prepare(x []float32, start, end, block, h int) {
 			b.tmp = b.tmp[:0]
 			var s0, s1 float32 // two partial sums, so that the adds overlap
 			i := s
-			for ; i+stride < e; i += 2 * stride {
-				u := float32(math.Abs(float64(hk.at(b.cum, i))))
-				v := float32(math.Abs(float64(hk.at(b.cum, i+stride))))
-				s0, s1 = s0+u, s1+v
-				b.tmp = append(b.tmp, u, v)
-			}
-			if i < e {
-				u := float32(math.Abs(float64(hk.at(b.cum, i))))
-				s0 += u
-				b.tmp = append(b.tmp, u)
+			if o := hk.outer(); s >= o && e-1 < len(b.cum)-1-o {
+				// the whole block clear of the trace's ends: hat.at's
+				// arithmetic without its test, |r| by clearing the sign
+				// bit (math.Abs's own way), into a slice sized once
+				cnt := (e - s + stride - 1) / stride
+				if cap(b.tmp) < cnt {
+					b.tmp = make([]float32, cnt)
+				}
+				t := b.tmp[:cnt]
+				cum, hh, ic, is := b.cum, hk.h, hk.ic, hk.is
+				k := 0
+				for ; i+stride < e; i += 2 * stride {
+					j := i + stride
+					u := float32((cum[i+hh+1]-cum[i-hh])*ic - (cum[i+o+1]-cum[i-o])*is)
+					v := float32((cum[j+hh+1]-cum[j-hh])*ic - (cum[j+o+1]-cum[j-o])*is)
+					u = math.Float32frombits(math.Float32bits(u) &^ (1 << 31))
+					v = math.Float32frombits(math.Float32bits(v) &^ (1 << 31))
+					s0, s1 = s0+u, s1+v
+					t[k], t[k+1] = u, v
+					k += 2
+				}
+				if i < e {
+					u := float32((cum[i+hh+1]-cum[i-hh])*ic - (cum[i+o+1]-cum[i-o])*is)
+					u = math.Float32frombits(math.Float32bits(u) &^ (1 << 31))
+					s0 += u
+					t[k] = u
+				}
+				b.tmp = t
+			} else {
+				for ; i+stride < e; i += 2 * stride {
+					u := float32(math.Abs(float64(hk.at(b.cum, i))))
+					v := float32(math.Abs(float64(hk.at(b.cum, i+stride))))
+					s0, s1 = s0+u, s1+v
+					b.tmp = append(b.tmp, u, v)
+				}
+				if i < e {
+					u := float32(math.Abs(float64(hk.at(b.cum, i))))
+					s0 += u
+					b.tmp = append(b.tmp, u)
+				}
 			}
 			if cap(b.mid) < len(b.tmp) {
 				b.mid = make([]float32, len(b.tmp))
