@@ -251,7 +251,7 @@ func (b *bank) sweep4(x []float32, lo, hi int, lim []float64, next *int, setLim 
 	lim = lim[:4]
 	const chunk = 512
 	var idx [chunk]int32
-	var sgn [chunk]float64
+	var sgn [chunk]int8
 	for clo := lo; clo < hi; clo += chunk {
 		chi := min(clo+chunk, hi)
 		n := 0
@@ -261,11 +261,11 @@ func (b *bank) sweep4(x []float32, lo, hi int, lim []float64, next *int, setLim 
 			up := b2i(v >= p) & b2i(v > q)
 			dn := b2i(v <= p) & b2i(v < q)
 			idx[n&(chunk-1)] = int32(clo - 1 + j)
-			sgn[n&(chunk-1)] = float64(up - dn)
+			sgn[n&(chunk-1)] = int8(up - dn)
 			n += up | dn
 		}
 		for k := range n {
-			i, sign := int(idx[k]), sgn[k]
+			i, sign := int(idx[k]), float64(sgn[k])
 			if i >= *next {
 				setLim(i)
 			}
