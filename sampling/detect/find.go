@@ -73,37 +73,55 @@ func findChannel(dets []detection, d int, x []float32, from, to int, fs, thr flo
 	lim = lim[:len(b.hats)]
 	tt := thr * (1 - 1e-9)
 	next := math.MinInt // first sample past the block whose limits lim holds
-	for i := max(from, 1); i < min(to, len(x)-1); i++ {
-		ok, sign := isExtremum(x, i)
-		if !ok {
-			continue
-		}
-		if i >= next {
-			bi := max(i-start, 0) / block
-			next = start + (bi+1)*block
-			for k := range lim {
-				sc := b.scale[k]
-				lim[k] = tt * sc[min(bi, len(sc)-1)]
-				if !(thr > 0) {
-					lim[k] = math.Inf(-1)
-				}
+	setLim := func(i int) {
+		bi := max(i-start, 0) / block
+		next = start + (bi+1)*block
+		for k := range lim {
+			sc := b.scale[k]
+			lim[k] = tt * sc[min(bi, len(sc)-1)]
+			if !(thr > 0) {
+				lim[k] = math.Inf(-1)
 			}
 		}
-		if !b.mayReach(i, sign, lim) {
-			continue
-		}
+	}
+	// test examines an extremum that may reach thr, with the exact z
+	test := func(i int, sign float64) {
 		z := b.z(i, sign, start, block)
 		if !(z >= thr) {
-			continue
+			return
 		}
 		sc := scaleAt(i)
 		if !(sc > 0) {
-			continue
+			return
 		}
 		if det, pass := examine(x, d, i, sign, fs, thr, sc, z); pass {
 			dets = append(dets, det)
 		}
 	}
+	// slow is the search over [lo, hi), extremum by extremum
+	slow := func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			ok, sign := isExtremum(x, i)
+			if !ok {
+				continue
+			}
+			if i >= next {
+				setLim(i)
+			}
+			if b.mayReach(i, sign, lim) {
+				test(i, sign)
+			}
+		}
+	}
+	lo, hi := max(from, 1), min(to, len(x)-1)
+	flo, fhi := b.sweepRange(lo, hi, len(lim))
+	if flo >= fhi {
+		slow(lo, hi)
+		return dets
+	}
+	slow(lo, flo)
+	b.sweep4(x, flo, fhi, lim, &next, setLim, test)
+	slow(fhi, hi)
 	return dets
 }
 

@@ -125,16 +125,46 @@ func (b *bank) prepare(x []float32, start, end, block, h int) {
 			b.tmp = b.tmp[:0]
 			var s0, s1 float32 // two partial sums, so that the adds overlap
 			i := s
-			for ; i+stride < e; i += 2 * stride {
-				u := float32(math.Abs(float64(hk.at(b.cum, i))))
-				v := float32(math.Abs(float64(hk.at(b.cum, i+stride))))
-				s0, s1 = s0+u, s1+v
-				b.tmp = append(b.tmp, u, v)
-			}
-			if i < e {
-				u := float32(math.Abs(float64(hk.at(b.cum, i))))
-				s0 += u
-				b.tmp = append(b.tmp, u)
+			if o := hk.outer(); s >= o && e-1 < len(b.cum)-1-o {
+				// the whole block clear of the trace's ends: hat.at's
+				// arithmetic without its test, |r| by clearing the sign
+				// bit (math.Abs's own way), into a slice sized once
+				cnt := (e - s + stride - 1) / stride
+				if cap(b.tmp) < cnt {
+					b.tmp = make([]float32, cnt)
+				}
+				t := b.tmp[:cnt]
+				cum, hh, ic, is := b.cum, hk.h, hk.ic, hk.is
+				k := 0
+				for ; i+stride < e; i += 2 * stride {
+					j := i + stride
+					u := float32((cum[i+hh+1]-cum[i-hh])*ic - (cum[i+o+1]-cum[i-o])*is)
+					v := float32((cum[j+hh+1]-cum[j-hh])*ic - (cum[j+o+1]-cum[j-o])*is)
+					u = math.Float32frombits(math.Float32bits(u) &^ (1 << 31))
+					v = math.Float32frombits(math.Float32bits(v) &^ (1 << 31))
+					s0, s1 = s0+u, s1+v
+					t[k], t[k+1] = u, v
+					k += 2
+				}
+				if i < e {
+					u := float32((cum[i+hh+1]-cum[i-hh])*ic - (cum[i+o+1]-cum[i-o])*is)
+					u = math.Float32frombits(math.Float32bits(u) &^ (1 << 31))
+					s0 += u
+					t[k] = u
+				}
+				b.tmp = t
+			} else {
+				for ; i+stride < e; i += 2 * stride {
+					u := float32(math.Abs(float64(hk.at(b.cum, i))))
+					v := float32(math.Abs(float64(hk.at(b.cum, i+stride))))
+					s0, s1 = s0+u, s1+v
+					b.tmp = append(b.tmp, u, v)
+				}
+				if i < e {
+					u := float32(math.Abs(float64(hk.at(b.cum, i))))
+					s0 += u
+					b.tmp = append(b.tmp, u)
+				}
 			}
 			if cap(b.mid) < len(b.tmp) {
 				b.mid = make([]float32, len(b.tmp))
@@ -186,4 +216,75 @@ func (b *bank) mayReach(i int, sign float64, lim []float64) bool {
 		}
 	}
 	return false
+}
+
+// sweepRange returns the part [flo, fhi) of [lo, hi) that sweep4 can
+// search: four hats, four limits, and every hat's surround inside the
+// running sum (where mayReach reads the four in one expression). It is
+// empty otherwise.
+func (b *bank) sweepRange(lo, hi, nlim int) (flo, fhi int) {
+	if len(b.hats) != 4 || nlim != 4 {
+		return 0, 0
+	}
+	h0, h1, h2, h3 := b.hats[0], b.hats[1], b.hats[2], b.hats[3]
+	o := max(h0.outer(), h1.outer(), h2.outer(), h3.outer())
+	return max(lo, o), min(hi, len(b.cum)-1-o)
+}
+
+// sweep4 is findChannel's search over [lo, hi) (a sweepRange): it calls
+// test(i, sign) at each extremum i of x (isExtremum) where some hat's
+// response of the extremum's sign reaches its limit lim[k] (mayReach),
+// in increasing i, calling setLim(i) first whenever i ≥ *next. The
+// extrema of a stretch of samples are first gathered without branches
+// (the extremum test is true at about a third of the samples in no order
+// a branch predictor can follow), then the four responses of each are
+// computed, each exactly as hat.at computes it, and tested against the
+// limits. The calls are those of the extremum-by-extremum search
+// (TestFindChannelMatchesExactZ).
+func (b *bank) sweep4(x []float32, lo, hi int, lim []float64, next *int, setLim func(int), test func(int, float64)) {
+	cum := b.cum
+	h0, h1, h2, h3 := b.hats[0], b.hats[1], b.hats[2], b.hats[3]
+	a0, c0, e0, g0, ic0, is0 := h0.h+1, h0.h, 3*h0.h+2, 3*h0.h+1, h0.ic, h0.is
+	a1, c1, e1, g1, ic1, is1 := h1.h+1, h1.h, 3*h1.h+2, 3*h1.h+1, h1.ic, h1.is
+	a2, c2, e2, g2, ic2, is2 := h2.h+1, h2.h, 3*h2.h+2, 3*h2.h+1, h2.ic, h2.is
+	a3, c3, e3, g3, ic3, is3 := h3.h+1, h3.h, 3*h3.h+2, 3*h3.h+1, h3.ic, h3.is
+	lim = lim[:4]
+	const chunk = 512
+	var idx [chunk]int32
+	var sgn [chunk]int8
+	for clo := lo; clo < hi; clo += chunk {
+		chi := min(clo+chunk, hi)
+		n := 0
+		xs := x[clo-1 : chi+1]
+		for j := 1; j < len(xs)-1; j++ {
+			p, v, q := xs[j-1], xs[j], xs[j+1]
+			up := b2i(v >= p) & b2i(v > q)
+			dn := b2i(v <= p) & b2i(v < q)
+			idx[n&(chunk-1)] = int32(clo - 1 + j)
+			sgn[n&(chunk-1)] = int8(up - dn)
+			n += up | dn
+		}
+		for k := range n {
+			i, sign := int(idx[k]), float64(sgn[k])
+			if i >= *next {
+				setLim(i)
+			}
+			r0 := float32((cum[i+a0]-cum[i-c0])*ic0 - (cum[i+e0]-cum[i-g0])*is0)
+			r1 := float32((cum[i+a1]-cum[i-c1])*ic1 - (cum[i+e1]-cum[i-g1])*is1)
+			r2 := float32((cum[i+a2]-cum[i-c2])*ic2 - (cum[i+e2]-cum[i-g2])*is2)
+			r3 := float32((cum[i+a3]-cum[i-c3])*ic3 - (cum[i+e3]-cum[i-g3])*is3)
+			if sign*float64(r0) >= lim[0] || sign*float64(r1) >= lim[1] ||
+				sign*float64(r2) >= lim[2] || sign*float64(r3) >= lim[3] {
+				test(i, sign)
+			}
+		}
+	}
+}
+
+// b2i is 1 for true and 0 for false (compiled to a flag copy, not a branch).
+func b2i(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }

@@ -141,7 +141,7 @@ func TestFindChannelMatchesExactZ(t *testing.T) {
 	const start = 100
 	b.prepare(x, start, n, fs, 5)
 	scaleAt := func(int) float64 { return 1 }
-	for _, thr := range []float64{0.5, 2, 5} {
+	for _, thr := range []float64{0, 0.5, 2, 5} {
 		got := findChannel(nil, 0, x, 10, n-10, fs, thr, scaleAt, &b, start, fs)
 		var want []detection
 		tested := 0

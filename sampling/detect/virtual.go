@@ -127,72 +127,90 @@ func virtualChannel(xs [][]float32, t *trace, ph phase, bc *blockCov, vs *virtua
 // blockCov holds, for one conditioned window, the background's second
 // moments after the moving-mean high-pass, in blocks of one second: the
 // covariance of any background ranges is then a sum over whole blocks,
-// computed once per window instead of once per event.
+// computed once per window instead of once per event. A block's moments
+// depend on its own samples only, and are computed when a sum first
+// needs them: blocks no event's background reaches (most of the window's
+// context, stretches without events) are not computed at all.
 type blockCov struct {
 	n, origin, size int
 	blocks          int
 	mom             []float64 // per block: n sums, then the n×n sums of products
 	cnt             []int     // samples per block
+	done            []bool    // per block: mom and cnt computed
 	z               []float64 // scratch: one block's high-passed samples, sample-major
+	xs              [][]float32
+	h               int
 }
 
-// build computes the block moments of derivations xs over [lo, hi) at fs,
+// build prepares the block moments of derivations xs over [lo, hi) at fs,
 // buffer index i being input sample base+i. Blocks are aligned to whole
 // seconds of the input, not to the window, so that a window cut
-// differently (MeasureAt's) gives the same blocks around an event.
+// differently (MeasureAt's) gives the same blocks around an event. xs must
+// not change while the moments are read (sum).
 func (bc *blockCov) build(xs [][]float32, lo, hi int, base int64, fs float64) {
 	n := len(xs)
 	h := vcHalf(fs)
-	bc.n, bc.size = n, max(1, int(math.Round(fs)))
+	bc.n, bc.size, bc.xs, bc.h = n, max(1, int(math.Round(fs))), xs, h
 	size := int64(bc.size)
 	bc.origin = lo + h + int((size-(base+int64(lo+h))%size)%size)
 	end := hi - h
 	bc.blocks = max(0, (end-bc.origin)/bc.size)
 	stride := n + n*n
 	bc.mom = grow64(bc.mom, bc.blocks*stride)
-	clear(bc.mom)
 	if cap(bc.cnt) < bc.blocks {
 		bc.cnt = make([]int, bc.blocks)
 	}
 	bc.cnt = bc.cnt[:bc.blocks]
+	if cap(bc.done) < bc.blocks {
+		bc.done = make([]bool, bc.blocks)
+	}
+	bc.done = bc.done[:bc.blocks]
+	clear(bc.done)
 	per := (bc.size + vcStride - 1) / vcStride
 	bc.z = grow64(bc.z, per*n)
+}
+
+// block computes block b's moments.
+func (bc *blockCov) block(b int) {
+	n, h, xs := bc.n, bc.h, bc.xs
+	stride := n + n*n
+	per := (bc.size + vcStride - 1) / vcStride
 	inv := 1 / float64(2*h+1)
-	for b := range bc.blocks {
-		s0 := bc.origin + b*bc.size
-		for c, x := range xs {
-			var m float64
-			for j := s0 - h; j <= s0+h; j++ {
-				m += float64(x[j])
-			}
-			// every vcStride-th sample, the moving mean advanced over
-			// the others without a test per sample
-			k, s := 0, s0
-			if vcStride == 2 {
-				for ; s+1 < s0+bc.size; s += 2 {
-					bc.z[k*n+c] = float64(x[s]) - m*inv
-					k++
-					m += float64(x[s+h+1]) - float64(x[s-h])
-					m += float64(x[s+h+2]) - float64(x[s+1-h])
-				}
-			}
-			for ; s < s0+bc.size; s += vcStride {
+	s0 := bc.origin + b*bc.size
+	for c, x := range xs {
+		var m float64
+		for j := s0 - h; j <= s0+h; j++ {
+			m += float64(x[j])
+		}
+		// every vcStride-th sample, the moving mean advanced over
+		// the others without a test per sample
+		k, s := 0, s0
+		if vcStride == 2 {
+			for ; s+1 < s0+bc.size; s += 2 {
 				bc.z[k*n+c] = float64(x[s]) - m*inv
 				k++
-				for t := s; t < min(s+vcStride, s0+bc.size); t++ {
-					m += float64(x[t+h+1]) - float64(x[t-h])
-				}
+				m += float64(x[s+h+1]) - float64(x[s-h])
+				m += float64(x[s+h+2]) - float64(x[s+1-h])
 			}
 		}
-		mom := bc.mom[b*stride : (b+1)*stride]
-		for k := range per {
-			for c := range n {
-				mom[c] += bc.z[k*n+c]
+		for ; s < s0+bc.size; s += vcStride {
+			bc.z[k*n+c] = float64(x[s]) - m*inv
+			k++
+			for t := s; t < min(s+vcStride, s0+bc.size); t++ {
+				m += float64(x[t+h+1]) - float64(x[t-h])
 			}
 		}
-		rankK(mom[n:n+n*n], bc.z[:per*n], n)
-		bc.cnt[b] = per
 	}
+	mom := bc.mom[b*stride : (b+1)*stride]
+	clear(mom)
+	for k := range per {
+		for c := range n {
+			mom[c] += bc.z[k*n+c]
+		}
+	}
+	rankK(mom[n:n+n*n], bc.z[:per*n], n)
+	bc.cnt[b] = per
+	bc.done[b] = true
 }
 
 // rankK adds to the upper triangle of the n×n row-major s the products
@@ -263,6 +281,9 @@ func (bc *blockCov) sum(rs [][2]int, dst []float64) int {
 			continue
 		}
 		for b := b0; b < b1; b++ {
+			if !bc.done[b] {
+				bc.block(b)
+			}
 			mom := bc.mom[b*stride : (b+1)*stride]
 			for c := range n {
 				mean[c] += mom[c]

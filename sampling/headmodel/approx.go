@@ -56,7 +56,21 @@ func (s Sphere) BergScherg() (BergScherg, error) {
 var bsCache = struct {
 	sync.Mutex
 	m map[string]BergScherg
-}{m: map[string]BergScherg{}}
+}{m: map[string]BergScherg{
+	fmt.Sprint(DefaultHead().Radii, DefaultHead().Sigma): defaultBergScherg,
+}}
+
+// defaultBergScherg is fitBergScherg's result for DefaultHead, written
+// with the shortest decimals that read back to the same float64 values,
+// so that a process need not spend the fit's tenths of a second on the
+// head every detection uses; TestDefaultBergSchergTabulated fits it again
+// and requires the same values bit for bit.
+var defaultBergScherg = BergScherg{
+	Lambda: [3]float64{0.35668086657268433, 0.23807887850570728, 0.06615949865556886},
+	Mu:     [3]float64{0.44260321741222247, 0.7687429854154715, 0.9898563436487641},
+	R:      0.09,
+	Sigma:  0.33,
+}
 
 func (s Sphere) fitBergScherg() (BergScherg, error) {
 	R := s.Radius()
@@ -147,6 +161,71 @@ func (bs *BergScherg) leadOnScalp(e, r0 Vec3) Vec3 {
 	}
 	k := 1 / (4 * math.Pi * bs.Sigma)
 	return Vec3{k * g0, k * g1, k * g2}
+}
+
+// leadsOnScalp sets dst[i] to leadOnScalp(electrodes[i], r0), bit for bit,
+// and returns their sum Σ dst[i] (added in index order from zero). The
+// products μ_j·r0, the factors 2λ_j and 1/(4πσ) are formed once per
+// position rather than once per electrode, each by the same operation
+// leadOnScalp performs, and the three image dipoles are unrolled; no
+// operation is reordered, so every value is the same.
+func (bs *BergScherg) leadsOnScalp(dst []Vec3, electrodes []Vec3, r0 Vec3) Vec3 {
+	R := bs.R
+	m0, m1, m2 := bs.Mu[0], bs.Mu[1], bs.Mu[2]
+	a00, a01, a02 := m0*r0[0], m0*r0[1], m0*r0[2]
+	a10, a11, a12 := m1*r0[0], m1*r0[1], m1*r0[2]
+	a20, a21, a22 := m2*r0[0], m2*r0[1], m2*r0[2]
+	l0, l1, l2 := bs.Lambda[0], bs.Lambda[1], bs.Lambda[2]
+	t0, t1, t2 := 2*l0, 2*l1, 2*l2
+	k := 1 / (4 * math.Pi * bs.Sigma)
+	var s0, s1, s2 float64
+	dst = dst[:len(electrodes)]
+	for i, e := range electrodes {
+		e0, e1, e2 := e[0], e[1], e[2]
+		var g0, g1, g2 float64
+		{
+			d0, d1, d2 := e0-a00, e1-a01, e2-a02
+			d := math.Sqrt(d0*d0 + d1*d1 + d2*d2)
+			ed := e0*d0 + e1*d1 + e2*d2
+			a := t0 / (d * d * d)
+			den := l0 / (R * d * (R*d + ed))
+			b := a + R*den
+			c := d * den
+			g0 += b*d0 + c*e0
+			g1 += b*d1 + c*e1
+			g2 += b*d2 + c*e2
+		}
+		{
+			d0, d1, d2 := e0-a10, e1-a11, e2-a12
+			d := math.Sqrt(d0*d0 + d1*d1 + d2*d2)
+			ed := e0*d0 + e1*d1 + e2*d2
+			a := t1 / (d * d * d)
+			den := l1 / (R * d * (R*d + ed))
+			b := a + R*den
+			c := d * den
+			g0 += b*d0 + c*e0
+			g1 += b*d1 + c*e1
+			g2 += b*d2 + c*e2
+		}
+		{
+			d0, d1, d2 := e0-a20, e1-a21, e2-a22
+			d := math.Sqrt(d0*d0 + d1*d1 + d2*d2)
+			ed := e0*d0 + e1*d1 + e2*d2
+			a := t2 / (d * d * d)
+			den := l2 / (R * d * (R*d + ed))
+			b := a + R*den
+			c := d * den
+			g0 += b*d0 + c*e0
+			g1 += b*d1 + c*e1
+			g2 += b*d2 + c*e2
+		}
+		v := Vec3{k * g0, k * g1, k * g2}
+		dst[i] = v
+		s0 += v[0]
+		s1 += v[1]
+		s2 += v[2]
+	}
+	return Vec3{s0, s1, s2}
 }
 
 // Potentials is Sphere.Potentials under the approximation.

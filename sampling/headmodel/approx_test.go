@@ -45,3 +45,19 @@ func TestBergSchergAccuracy(t *testing.T) {
 		}
 	}
 }
+
+// TestDefaultBergSchergTabulated fits the Berg–Scherg approximation of
+// the default head again and requires the tabulated parameters
+// (defaultBergScherg) bit for bit, and that BergScherg returns them.
+func TestDefaultBergSchergTabulated(t *testing.T) {
+	got, err := DefaultHead().fitBergScherg()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got != defaultBergScherg {
+		t.Errorf("fit %#v, tabulated %#v", got, defaultBergScherg)
+	}
+	if bs, err := DefaultHead().BergScherg(); err != nil || bs != defaultBergScherg {
+		t.Errorf("BergScherg() = %#v, %v; want the tabulated %#v", bs, err, defaultBergScherg)
+	}
+}

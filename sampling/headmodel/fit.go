@@ -114,26 +114,48 @@ func NewFitter(electrodes []Vec3, head Sphere, opts FitOptions) (*Fitter, error)
 // carLead fills dst with the common-average-referenced lead vectors at pos
 // and returns their Gram matrix Σ l lᵀ.
 func (f *Fitter) carLead(dst []Vec3, pos Vec3) [3][3]float64 {
-	var mean Vec3
-	for i, e := range f.electrodes {
-		dst[i] = f.bs.leadOnScalp(e, pos)
-		mean = mean.Add(dst[i])
-	}
+	m, _ := f.carLeadProject(dst, pos, nil)
+	return m
+}
+
+// carLeadProject is carLead that also returns Lᵀw (project) for the
+// referenced lead vectors when w is not nil, accumulated in the same loop
+// and the same order as project adds them.
+func (f *Fitter) carLeadProject(dst []Vec3, pos Vec3, w []float64) ([3][3]float64, Vec3) {
+	mean := f.bs.leadsOnScalp(dst, f.electrodes, pos)
 	mean = mean.Scale(1 / float64(len(dst)))
 	// the Gram matrix's six distinct sums, each in the same order as a
 	// full 3×3 loop would add them, so the result is the same bit for bit
 	var m00, m01, m02, m11, m12, m22 float64
-	for i := range dst {
-		l := dst[i].Sub(mean)
-		dst[i] = l
-		m00 += l[0] * l[0]
-		m01 += l[0] * l[1]
-		m02 += l[0] * l[2]
-		m11 += l[1] * l[1]
-		m12 += l[1] * l[2]
-		m22 += l[2] * l[2]
+	var b0, b1, b2 float64
+	if w != nil {
+		w = w[:len(dst)]
+		for i := range dst {
+			l := dst[i].Sub(mean)
+			dst[i] = l
+			m00 += l[0] * l[0]
+			m01 += l[0] * l[1]
+			m02 += l[0] * l[2]
+			m11 += l[1] * l[1]
+			m12 += l[1] * l[2]
+			m22 += l[2] * l[2]
+			b0 += l[0] * w[i]
+			b1 += l[1] * w[i]
+			b2 += l[2] * w[i]
+		}
+	} else {
+		for i := range dst {
+			l := dst[i].Sub(mean)
+			dst[i] = l
+			m00 += l[0] * l[0]
+			m01 += l[0] * l[1]
+			m02 += l[0] * l[2]
+			m11 += l[1] * l[1]
+			m12 += l[1] * l[2]
+			m22 += l[2] * l[2]
+		}
 	}
-	return [3][3]float64{{m00, m01, m02}, {m01, m11, m12}, {m02, m12, m22}}
+	return [3][3]float64{{m00, m01, m02}, {m01, m11, m12}, {m02, m12, m22}}, Vec3{b0, b1, b2}
 }
 
 // Fit fits one equivalent dipole to v (one value per electrode, any
@@ -195,7 +217,10 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		b := project(g.lead, w)
 		cands = append(cands, cand{g.pos, 1 - quad(g.inv, b)/ss})
 	}
-	sort.Slice(cands, func(a, b int) bool { return cands[a].rv < cands[b].rv })
+	starts := min(f.opts.Starts, len(cands))
+	if !smallestFirst(cands, starts, func(c cand) float64 { return c.rv }) {
+		sort.Slice(cands, func(a, b int) bool { return cands[a].rv < cands[b].rv })
+	}
 
 	lead := make([]Vec3, n)
 	R := f.head.Radius()
@@ -204,16 +229,15 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		if ex := p.Norm() - f.rmax; ex > 0 {
 			return 1 + 100*ex/R
 		}
-		m := f.carLead(lead, p)
+		m, b := f.carLeadProject(lead, p, w)
 		inv, ok := inverse3(m)
 		if !ok {
 			return 1
 		}
-		b := project(lead, w)
 		return 1 - quad(inv, b)/ss
 	}
 	best := cand{rv: math.Inf(1)}
-	for s := 0; s < f.opts.Starts && s < len(cands); s++ {
+	for s := 0; s < starts; s++ {
 		c := cands[s]
 		res := nelderMead3(obj, c.pos, 0.5*f.opts.GridStep*R, f.opts.MaxEval, 1e-9, 8)
 		if !res.ok {
@@ -243,6 +267,42 @@ func (f *Fitter) Fit(v []float64) (Dipole, error) {
 		GOF:         1 - mat.Dot(&res, &res)/ss,
 		Orientation: Classify(best.pos, mom, f.head.Radii[0]),
 	}, nil
+}
+
+// smallestFirst moves the k elements of c with the smallest keys to
+// c[:k], in increasing order, and reports true, when that order is the
+// only one a sort by key could give: the k smallest keys are distinct, no
+// other key equals the k-th, and no key is NaN. Otherwise (ties or NaN,
+// where an unstable sort's order depends on its algorithm) it reports
+// false, having only permuted c, and the caller sorts. A partial selection
+// by insertion costs O(k·len(c)) comparisons, against O(len(c)·log len(c))
+// for a sort.
+func smallestFirst[T any](c []T, k int, key func(T) float64) bool {
+	if k <= 0 {
+		return true
+	}
+	for i := 0; i < k; i++ {
+		// move the smallest of c[i:] to i; a tie with it is left behind
+		m := i
+		for j := i + 1; j < len(c); j++ {
+			if key(c[j]) < key(c[m]) {
+				m = j
+			}
+		}
+		c[i], c[m] = c[m], c[i]
+	}
+	last := key(c[k-1])
+	for i := 0; i < k; i++ {
+		if x := key(c[i]); x != x || (i > 0 && !(key(c[i-1]) < x)) {
+			return false
+		}
+	}
+	for _, x := range c[k:] {
+		if x := key(x); x != x || !(x > last) {
+			return false
+		}
+	}
+	return true
 }
 
 // project returns Lᵀw for the lead vectors l.

@@ -213,3 +213,106 @@ func BenchmarkBergSchergPotentials(b *testing.B) {
 		bs.Potentials(v, els, Vec3{0.03, 0.04, 0.04}, Vec3{1e-8, 0, 1e-8})
 	}
 }
+
+// TestLeadsOnScalpBitExact checks the dipole fit's fused lead-field pass
+// (leadsOnScalp, carLeadProject) against the per-electrode form it
+// replaces (leadOnScalp, then the common-average reference, Gram matrix
+// and project as separate loops): every value bit for bit, at random
+// positions inside the brain and on the grid, on the 21-electrode montage.
+func TestLeadsOnScalpBitExact(t *testing.T) {
+	head := DefaultHead()
+	els := montage(t, head, montage21)
+	f, err := NewFitter(els, head, FitOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(17, 5))
+	n := len(f.electrodes)
+	got, want := make([]Vec3, n), make([]Vec3, n)
+	w := make([]float64, n)
+	for trial := range 2000 {
+		p := Vec3{rng.Float64()*2 - 1, rng.Float64()*2 - 1, rng.Float64()*2 - 1}.Scale(f.rmax / math.Sqrt(3))
+		if trial < len(f.grid) {
+			p = f.grid[trial].pos
+		}
+		for i := range w {
+			w[i] = rng.NormFloat64()
+		}
+		// the plain form
+		var mean Vec3
+		for i, e := range f.electrodes {
+			want[i] = f.bs.leadOnScalp(e, p)
+			mean = mean.Add(want[i])
+		}
+		mean = mean.Scale(1 / float64(n))
+		var gram [3][3]float64
+		for i := range want {
+			want[i] = want[i].Sub(mean)
+			for a := range 3 {
+				for b := range 3 {
+					gram[a][b] += want[i][a] * want[i][b]
+				}
+			}
+		}
+		proj := project(want, w)
+		m, b := f.carLeadProject(got, p, w)
+		if m != gram || b != proj {
+			t.Fatalf("at %v: Gram %v, Lᵀw %v; plain form %v, %v", p, m, b, gram, proj)
+		}
+		for i := range got {
+			if got[i] != want[i] {
+				t.Fatalf("at %v electrode %d: %v, plain form %v", p, i, got[i], want[i])
+			}
+		}
+		if m2 := f.carLead(got, p); m2 != gram {
+			t.Fatalf("carLead at %v: %v, plain form %v", p, m2, gram)
+		}
+	}
+}
+
+// TestSmallestFirst checks the grid stage's partial selection against
+// sort.Slice (the full sort it replaces): whenever it reports success its
+// first k elements are the sorted slice's first k, and it reports failure
+// exactly when the k smallest keys are not distinct, another key equals
+// the k-th, or a key is NaN.
+func TestSmallestFirst(t *testing.T) {
+	rng := rand.New(rand.NewPCG(17, 6))
+	id := func(x float64) float64 { return x }
+	for trial := range 3000 {
+		n := 1 + rng.IntN(40)
+		k := rng.IntN(min(n, 4) + 1)
+		c := make([]float64, n)
+		for i := range c {
+			c[i] = rng.NormFloat64()
+			if trial%3 == 1 {
+				c[i] = float64(rng.IntN(6)) // many ties
+			}
+		}
+		if trial%7 == 2 {
+			c[rng.IntN(n)] = math.NaN()
+		}
+		want := append([]float64(nil), c...)
+		sort.Float64s(want)
+		unique := true
+		for i := 0; i < k; i++ {
+			if math.IsNaN(want[i]) || (i+1 < n && !(want[i] < want[i+1])) {
+				unique = false
+			}
+		}
+		for _, x := range c {
+			unique = unique && !math.IsNaN(x)
+		}
+		got := append([]float64(nil), c...)
+		ok := smallestFirst(got, k, id)
+		if ok != (unique || k == 0) {
+			t.Fatalf("%v, k %d: reported %v, unique order %v", c, k, ok, unique)
+		}
+		if ok {
+			for i := 0; i < k; i++ {
+				if got[i] != want[i] {
+					t.Fatalf("%v, k %d: %v, sorted %v", c, k, got[:k], want[:k])
+				}
+			}
+		}
+	}
+}
