@@ -41,7 +41,8 @@ type coverageRow struct {
 // QUORATE_COVERAGE_FROM sets the first seed (default 1); QUORATE_COVERAGE_METHOD the
 // fitting method (criteria-and-score, criterion-majority, criterion-verdict or
 // joint-search); QUORATE_COVERAGE_GENERATOR the archive's generator (as demo
-// --generator: first, second or both); QUORATE_COVERAGE_ALLOCATION and
+// --generator: first, second or both); QUORATE_COVERAGE_RATERS the simulated panel's
+// size (as demo --raters; with three, one of them hurried); QUORATE_COVERAGE_ALLOCATION and
 // QUORATE_COVERAGE_STRATA the draw's allocation and strata (as demo --allocation and
 // --strata; default study.yaml's), so that the study is run once per allocation, each
 // in its own QUORATE_COVERAGE_DIR; QUORATE_COVERAGE_DIR keeps the demo folders and, when
@@ -109,6 +110,9 @@ func coverageSeed(t *testing.T, out string, seed int, sizes []string, method str
 			t.Fatalf("QUORATE_COVERAGE_METHOD=%s needs an existing QUORATE_COVERAGE_DIR: the demo tunes with the default", method)
 		}
 		args := append([]string{"--quiet", "--workers", "2", "demo", "--out", out, "--seed", strconv.Itoa(seed)}, sizes...)
+		if r := os.Getenv("QUORATE_COVERAGE_RATERS"); r != "" {
+			args = append(args, "--raters", r)
+		}
 		if g := os.Getenv("QUORATE_COVERAGE_GENERATOR"); g != "" {
 			args = append(args, "--generator", g)
 		}
