@@ -22,6 +22,9 @@ type InputError struct {
 }
 
 func (e *InputError) Error() string {
+	if e.Index < 0 { // an option, not an event
+		return fmt.Sprintf("tuning: %s: %s", e.Field, e.Msg)
+	}
 	return fmt.Sprintf("tuning: event %d (%s): %s: %s", e.Index, e.EventID, e.Field, e.Msg)
 }
 

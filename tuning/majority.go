@@ -2,6 +2,7 @@ package tuning
 
 import (
 	"fmt"
+	"strings"
 
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
 )
@@ -44,6 +45,9 @@ const (
 	MethodDefault = MethodScoreVote
 )
 
+// Methods are the fitting methods, the default first.
+var Methods = []string{MethodScoreVote, MethodCriterion, MethodVerdict, MethodJoint}
+
 // fitRule fits the automatic rule by method on s.
 func fitRule(s *evset, method string, p accuracy.Policy) (*autoFit, []string, error) {
 	switch method {
@@ -56,7 +60,7 @@ func fitRule(s *evset, method string, p accuracy.Policy) (*autoFit, []string, er
 	case MethodScoreVote, "":
 		return fitMajority(s, p, false, true)
 	}
-	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want %q, %q, %q or %q, got %q", MethodCriterion, MethodScoreVote, MethodVerdict, MethodJoint, method)}
+	return nil, nil, &InputError{Index: -1, Field: "Method", Msg: fmt.Sprintf("want one of %s, got %q", strings.Join(Methods, ", "), method)}
 }
 
 // criterionTargets are the stated ways a criterion's cutoff is read off its

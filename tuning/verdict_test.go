@@ -164,7 +164,9 @@ func TestScoreVoteWithoutScores(t *testing.T) {
 	if def.Final.Rule != six.Final.Rule || def.Final.Score.Direction != 0 || len(def.Auto.ByK) != 6 {
 		t.Errorf("without scores the default rule %q differs from the six-criteria rule %q", def.Final.Rule, six.Final.Rule)
 	}
-	if !slices.ContainsFunc(def.Warnings, func(w string) bool { return strings.HasPrefix(w, "score: no event with a reference has a measured score") }) {
+	if !slices.ContainsFunc(def.Warnings, func(w string) bool {
+		return strings.HasPrefix(w, "score: no event with a reference has a measured score")
+	}) {
 		t.Errorf("no warning that the score is left out: %q", def.Warnings)
 	}
 }

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"errors"
 	"os"
 	"path/filepath"
 	"sort"
@@ -10,6 +11,7 @@ import (
 
 	"github.com/quorate-eeg/quorate/cmd/quorate/internal/study"
 	"github.com/quorate-eeg/quorate/export/report"
+	"github.com/quorate-eeg/quorate/tuning"
 )
 
 // clearReturns removes a demo study's stored returns (read-only by design) and its
@@ -94,5 +96,21 @@ func TestTuneWarnsBeforeFailing(t *testing.T) {
 	}
 	if want := "1 of 3 packets are outstanding"; !strings.Contains(errs.String(), want) {
 		t.Errorf("stderr lacks %q:\n%s", want, errs.String())
+	}
+}
+
+// An unknown --method is a usage error naming the flag and every method, before
+// anything is read or written.
+func TestTuneUnknownMethod(t *testing.T) {
+	st := demoStudy(t)
+	_, err := run(t, "--study", st, "tune", "--method", "k-of-six")
+	var u usageError
+	if !errors.As(err, &u) || !strings.Contains(err.Error(), "--method") {
+		t.Fatalf("tune --method k-of-six: %v, want a usage error naming --method", err)
+	}
+	for _, m := range tuning.Methods {
+		if !strings.Contains(err.Error(), m) {
+			t.Errorf("%q does not list %s", err, m)
+		}
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"time"
 
@@ -84,6 +85,9 @@ func runTune(ctx context.Context, g *globals, s *study.Study, f *tuneFlags) erro
 	pol, err := accuracy.ParsePolicy(f.policy)
 	if err != nil {
 		return usageError{fmt.Errorf("--policy: %w", err)}
+	}
+	if f.method != "" && !slices.Contains(tuning.Methods, f.method) { // "" is the default (the demo)
+		return usageError{fmt.Errorf("--method: got %q, want one of %s", f.method, strings.Join(tuning.Methods, ", "))}
 	}
 	consPath := s.Path(study.ConsensusDir, merge.ConsensusFile)
 	evs, err := merge.ReadConsensus(consPath)
