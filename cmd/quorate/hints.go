@@ -41,6 +41,9 @@ var stepOf = map[string]string{
 	export.InputConsensus: "quorate merge",
 }
 
+// tuneFlagOf is the tune flag that sets each tuning.Options field an InputError names.
+var tuneFlagOf = map[string]string{"Folds": "--folds", "Method": "--method", "Bootstrap": "--bootstrap"}
+
 // hintFor is the command-layer advice for err, or "" when there is none.
 func hintFor(err error) string {
 	for _, h := range sentinelHints {
@@ -49,12 +52,15 @@ func hintFor(err error) string {
 		}
 	}
 	var (
+		option   *tuning.InputError
 		missing  *export.MissingStepError
 		packets  *packet.ExistsError
 		imported *importer.ExistsError
 		gone     *excerpt.MissingError
 	)
 	switch {
+	case errors.As(err, &option) && option.Index < 0 && tuneFlagOf[option.Field] != "":
+		return "change " + tuneFlagOf[option.Field]
 	case errors.As(err, &missing) && stepOf[missing.Table] != "":
 		return "run " + stepOf[missing.Table] + " first"
 	case errors.As(err, &packets):

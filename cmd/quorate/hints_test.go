@@ -5,6 +5,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"github.com/quorate-eeg/quorate/tuning"
 	"go/ast"
 	"go/token"
 	"path/filepath"
@@ -83,4 +84,15 @@ func TestDomainStringsHaveNoCLIWords(t *testing.T) {
 			return true
 		})
 	})
+}
+
+// A tuning option out of range names the tune flag that sets it; an unusable event
+// gets no flag advice (no flag fixes a row).
+func TestTuningOptionHints(t *testing.T) {
+	if h := hintFor(&tuning.InputError{Index: -1, Field: "Folds", Msg: "1 folds"}); h != "change --folds" {
+		t.Errorf("Folds: hint %q", h)
+	}
+	if h := hintFor(&tuning.InputError{Index: 3, EventID: "ev-1", Field: "Weight", Msg: "NaN"}); h != "" {
+		t.Errorf("an event's field: hint %q, want none", h)
+	}
 }
