@@ -21,8 +21,6 @@ import (
 	"github.com/quorate-eeg/quorate/panel/returns"
 )
 
-const chromiumPath = "/usr/bin/chromium"
-
 // Test excerpt: 16 s at 256 Hz, 10 s rated with 3 s of context either side,
 // and on Fz (referential row 4) a triangular spike of known width and height
 // one second after the event, on an otherwise flat trace.
@@ -74,28 +72,9 @@ func TestReviewPageInBrowser(t *testing.T) {
 	entry := res.Manifest.Packets[0]
 	downloads := t.TempDir()
 
-	parent, stop := context.WithTimeout(context.Background(), 60*time.Second)
-	defer stop()
-	actx, cancelA := chromedp.NewExecAllocator(parent,
-		chromedp.ExecPath(chromiumPath),
-		chromedp.Headless, chromedp.NoSandbox, chromedp.DisableGPU, chromedp.NoFirstRun, chromedp.NoDefaultBrowserCheck,
-		chromedp.Flag("disable-background-networking", true),
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-sync", true),
-		chromedp.Flag("disable-dev-shm-usage", true),
-		chromedp.Flag("hide-scrollbars", false),
-		chromedp.UserDataDir(t.TempDir()),
-		chromedp.WindowSize(1280, 720),
-	)
-	defer cancelA()
-	ctx, cancel := chromedp.NewContext(actx)
-	defer cancel()
+	ctx := newBrowser(t, 60*time.Second)
 
 	pageURL := (&url.URL{Scheme: "file", Path: res.Packets[0].Page}).String()
-	ready := chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
-		_, err := chromedp.Evaluate[bool]("window.quorate.ready", chromedp.EvalAwaitPromise)(ctx, tg)
-		return err
-	})
 	must := func(err error) {
 		t.Helper()
 		if err != nil {
@@ -122,7 +101,7 @@ func TestReviewPageInBrowser(t *testing.T) {
 		eval("window.quorate.settled()")
 	}
 
-	must(chromedp.Do(ctx, chromedp.EmulateViewport(1280, 720), chromedp.Navigate(pageURL), ready))
+	must(chromedp.Do(ctx, chromedp.EmulateViewport(1280, 720), chromedp.Navigate(pageURL), pageReady))
 
 	// Decoded traces of the first item equal the input to within half a step.
 	first := eventIndex(t, res, items, entry.Items[0])

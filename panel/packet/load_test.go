@@ -1,7 +1,6 @@
 package packet_test
 
 import (
-	"context"
 	"net/url"
 	"os"
 	"path/filepath"
@@ -31,28 +30,13 @@ func TestPageLoadTime(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	parent, stop := context.WithTimeout(context.Background(), 3*time.Minute)
-	defer stop()
-	actx, cancelA := chromedp.NewExecAllocator(parent,
-		chromedp.ExecPath(chromiumPath),
-		chromedp.Headless, chromedp.NoSandbox, chromedp.DisableGPU, chromedp.NoFirstRun, chromedp.NoDefaultBrowserCheck,
-		chromedp.Flag("disable-dev-shm-usage", true),
-		chromedp.UserDataDir(t.TempDir()),
-		chromedp.WindowSize(1280, 720),
-	)
-	defer cancelA()
-	ctx, cancel := chromedp.NewContext(actx)
-	defer cancel()
+	ctx := newBrowser(t, 3*time.Minute)
 	// Start the browser before the clock.
 	if err := chromedp.Do(ctx, chromedp.Navigate("about:blank")); err != nil {
 		t.Fatal(err)
 	}
-	ready := chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
-		_, err := chromedp.Evaluate[bool]("window.quorate.ready", chromedp.EvalAwaitPromise)(ctx, tg)
-		return err
-	})
 	t0 := time.Now()
-	if err := chromedp.Do(ctx, chromedp.Navigate((&url.URL{Scheme: "file", Path: page}).String()), ready); err != nil {
+	if err := chromedp.Do(ctx, chromedp.Navigate((&url.URL{Scheme: "file", Path: page}).String()), pageReady); err != nil {
 		t.Fatal(err)
 	}
 	load := time.Since(t0)
