@@ -13,39 +13,46 @@ import (
 	"github.com/quorate-eeg/quorate/tuning/accuracy"
 )
 
-// MethodVerdict reads each feature's cutoff off its ROC against the
-// reference standard, MethodCriterion against the criterion's panel
-// majority. testdata/youden_verdict.py gives both design-weighted Youden
-// thresholds from scikit-learn's roc_curve (sample_weight) for a feature
-// whose majority disagrees with the verdict on a quarter of the events.
-func TestFitFeatureByVerdict(t *testing.T) {
+// youdenRef is testdata/youden_verdict.json: one feature, its verdict and
+// majority labels and weights, and scikit-learn's design-weighted Youden
+// thresholds and J (testdata/youden_verdict.py).
+type youdenRef struct {
+	Feature           []float64
+	Verdict, Majority []bool
+	Weight            []float64
+	YoudenVerdict     float64 `json:"youden_verdict"`
+	YoudenMajority    float64 `json:"youden_majority"`
+	JVerdict          float64 `json:"j_verdict"`
+}
+
+// youdenSet reads the reference and builds its events with no criterion
+// measured but, unless asScore, criterion 3 (feature and majority); with
+// asScore the feature is the detector score instead.
+func youdenSet(t *testing.T, asScore bool) (youdenRef, *evset) {
+	t.Helper()
 	b, err := os.ReadFile("testdata/youden_verdict.json")
 	if err != nil {
 		t.Fatal(err)
 	}
-	var ref struct {
-		Feature           []float64
-		Verdict, Majority []bool
-		Weight            []float64
-		YoudenVerdict     float64 `json:"youden_verdict"`
-		YoudenMajority    float64 `json:"youden_majority"`
-		JVerdict          float64 `json:"j_verdict"`
-	}
+	var ref youdenRef
 	if err := json.Unmarshal(b, &ref); err != nil {
 		t.Fatal(err)
 	}
 	var ev []Event
 	for i, x := range ref.Feature {
-		e := Event{Subject: string(rune('a' + i%8)), Weight: ref.Weight[i]}
+		e := Event{Subject: string(rune('a' + i%8)), Weight: ref.Weight[i], Score: math.NaN()}
 		for j := range 6 {
 			e.Majority[j] = -1
 			e.Features[j] = math.NaN()
 		}
-		e.Features[2] = x
-		if ref.Majority[i] {
-			e.Majority[2] = 1
+		if asScore {
+			e.Score = x
 		} else {
+			e.Features[2] = x
 			e.Majority[2] = 0
+			if ref.Majority[i] {
+				e.Majority[2] = 1
+			}
 		}
 		if ref.Verdict[i] {
 			e.Reference = 1
@@ -57,6 +64,16 @@ func TestFitFeatureByVerdict(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return ref, s
+}
+
+// MethodVerdict reads each feature's cutoff off its ROC against the
+// reference standard, MethodCriterion against the criterion's panel
+// majority. testdata/youden_verdict.py gives both design-weighted Youden
+// thresholds from scikit-learn's roc_curve (sample_weight) for a feature
+// whose majority disagrees with the verdict on a quarter of the events.
+func TestFitFeatureByVerdict(t *testing.T) {
+	ref, s := youdenSet(t, false)
 	fv := fitFeature(s, 2, false, true)
 	fm := fitFeature(s, 2, false, false)
 	if !fv.ok || fv.dir != 1 || fv.cut != ref.YoudenVerdict {
@@ -94,37 +111,7 @@ func TestFitFeatureByVerdict(t *testing.T) {
 // criterion measured: the score's cutoff is the verdict's Youden
 // threshold, and the rule "at least 1 of: score ≥ s" reaches its J.
 func TestScoreVoteByVerdict(t *testing.T) {
-	b, err := os.ReadFile("testdata/youden_verdict.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	var ref struct {
-		Feature       []float64
-		Verdict       []bool
-		Weight        []float64
-		YoudenVerdict float64 `json:"youden_verdict"`
-		JVerdict      float64 `json:"j_verdict"`
-	}
-	if err := json.Unmarshal(b, &ref); err != nil {
-		t.Fatal(err)
-	}
-	var ev []Event
-	for i, x := range ref.Feature {
-		e := Event{Subject: string(rune('a' + i%8)), Weight: ref.Weight[i], Score: x}
-		for j := range 6 {
-			e.Majority[j] = -1
-			e.Features[j] = math.NaN()
-		}
-		if ref.Verdict[i] {
-			e.Reference = 1
-		}
-		ev = append(ev, e)
-	}
-	o := Options{Events: ev}
-	s, _, err := prepare(&o)
-	if err != nil {
-		t.Fatal(err)
-	}
+	ref, s := youdenSet(t, true)
 	if fs := fitFeature(s, scoreSlot, false, false); !fs.ok || fs.cut != ref.YoudenVerdict {
 		t.Errorf("score: ok %v, cutoff %v; scikit-learn %v", fs.ok, fs.cut, ref.YoudenVerdict)
 	}
