@@ -130,29 +130,20 @@ func (f *Fitter) carLeadProject(dst []Vec3, pos Vec3, w []float64) ([3][3]float6
 	var b0, b1, b2 float64
 	if w != nil {
 		w = w[:len(dst)]
-		for i := range dst {
-			l := dst[i].Sub(mean)
-			dst[i] = l
-			m00 += l[0] * l[0]
-			m01 += l[0] * l[1]
-			m02 += l[0] * l[2]
-			m11 += l[1] * l[1]
-			m12 += l[1] * l[2]
-			m22 += l[2] * l[2]
+	}
+	for i := range dst {
+		l := dst[i].Sub(mean)
+		dst[i] = l
+		m00 += l[0] * l[0]
+		m01 += l[0] * l[1]
+		m02 += l[0] * l[2]
+		m11 += l[1] * l[1]
+		m12 += l[1] * l[2]
+		m22 += l[2] * l[2]
+		if w != nil {
 			b0 += l[0] * w[i]
 			b1 += l[1] * w[i]
 			b2 += l[2] * w[i]
-		}
-	} else {
-		for i := range dst {
-			l := dst[i].Sub(mean)
-			dst[i] = l
-			m00 += l[0] * l[0]
-			m01 += l[0] * l[1]
-			m02 += l[0] * l[2]
-			m11 += l[1] * l[1]
-			m12 += l[1] * l[2]
-			m22 += l[2] * l[2]
 		}
 	}
 	return [3][3]float64{{m00, m01, m02}, {m01, m11, m12}, {m02, m12, m22}}, Vec3{b0, b1, b2}
