@@ -6,7 +6,6 @@ import (
 	"io"
 	"math"
 	"path/filepath"
-	"strings"
 
 	"github.com/parquet-go/parquet-go"
 	"github.com/parquet-go/parquet-go/compress/zstd"
@@ -135,7 +134,8 @@ func openEpocher(o *Options, rec *archive.Recording, kind montage.Kind) (*epoche
 	for i := range h.Signals {
 		if s := &h.Signals[i]; s.Kind == edf.EEG && s.SamplesPerRecord == best {
 			ep.sigs = append(ep.sigs, i)
-			ep.scale = append(ep.scale, toMicrovolts(s.PhysDim))
+			k, _ := s.Microvolts()
+			ep.scale = append(ep.scale, float32(k))
 			labels = append(labels, s.Name)
 			ep.rec[i] = make([]float32, best)
 		}
@@ -216,18 +216,4 @@ func (ep *epocher) epoch(e *EventRow, windowS float64) ([]EpochRow, bool, error)
 			PadBefore: padBefore, PadAfter: padAfter, Padded: padBefore > 0 || padAfter > 0, Samples: out[i]}
 	}
 	return rows, padBefore > 0 || padAfter > 0, nil
-}
-
-// toMicrovolts is the factor from a signal's physical dimension to µV (SI prefixes). An
-// empty or unrecognised dimension is taken as µV, the EEG convention. // common practice
-func toMicrovolts(dim string) float32 {
-	switch strings.TrimSpace(dim) {
-	case "V":
-		return 1e6
-	case "mV":
-		return 1e3
-	case "nV":
-		return 1e-3
-	}
-	return 1
 }

@@ -186,13 +186,3 @@ func TestEpochsDiscontinuous(t *testing.T) {
 		}
 	}
 }
-
-// TestToMicrovolts: SI prefixes (BIPM, The International System of Units, 9th ed.,
-// Table 7): 1 V = 10⁶ µV, 1 mV = 10³ µV, 1 nV = 10⁻³ µV.
-func TestToMicrovolts(t *testing.T) {
-	for dim, want := range map[string]float32{"V": 1e6, "mV": 1e3, "uV": 1, "µV": 1, "nV": 1e-3, "": 1} {
-		if got := toMicrovolts(dim); got != want {
-			t.Errorf("toMicrovolts(%q) = %v, want %v", dim, got, want)
-		}
-	}
-}

@@ -204,6 +204,7 @@ func commonElectrodes(rows []draw.Row, recs map[string]archive.Recording) ([]str
 type cutter struct {
 	rd      *edf.Reader
 	sig     []int
+	scale   []float32 // µV per physical unit of each signal (edf.Signal.Microvolts)
 	fs      float64
 	factor  int
 	rate    float64
@@ -234,6 +235,8 @@ func newCutter(rd *edf.Reader, electrodes []string, o Options) (*cutter, error) 
 		}
 		c.fs = fs
 		c.sig = append(c.sig, idx)
+		k, _ := h.Signals[idx].Microvolts()
+		c.scale = append(c.scale, float32(k))
 	}
 	c.factor = max(1, int(math.Ceil(c.fs/o.MaxRate-1e-9)))
 	c.rate = c.fs / float64(c.factor)
@@ -285,13 +288,18 @@ func (c *cutter) item(onset float64) (packet.Item, []float64, error) {
 	atPeak := make([]float64, 0, len(c.sig)) // filtered values at the event, for the map
 	buf := make([]float32, total)
 	filt := make([]float32, total)
-	for _, s := range c.sig {
+	for si, s := range c.sig {
 		clear(buf)
 		lo := max(from, 0)
 		hi := min(from+int64(total), n)
 		if hi > lo {
 			if _, err := c.rd.ReadSignal(s, lo, buf[lo-from:hi-from]); err != nil {
 				return out, nil, err
+			}
+			if k := c.scale[si]; k != 1 {
+				for j := range buf[lo-from : hi-from] {
+					buf[lo-from+int64(j)] *= k
+				}
 			}
 		}
 		var mean float64

@@ -8,10 +8,12 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/quorate-eeg/quorate/internal/progress"
 	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/draw"
+	"github.com/quorate-eeg/quorate/sampling/edf"
 	"github.com/quorate-eeg/quorate/sampling/headmodel"
 	"github.com/quorate-eeg/quorate/sampling/headmodel/spline"
 	"github.com/quorate-eeg/quorate/sampling/synth"
@@ -146,3 +148,65 @@ type countBar struct {
 }
 
 func (b countBar) Add(k int) { *b.n += k; b.cancelBar.Add(k) }
+
+// TestCutReadsTheFileUnit checks that a recording stored in mV is shown in
+// µV like the same recording stored in µV (SI prefixes, BIPM 2019, Table 7):
+// the page's calipers and scale bars are in µV.
+func TestCutReadsTheFileUnit(t *testing.T) {
+	dir := t.TempDir()
+	electrodes := []string{"Fp1", "Fp2", "C3", "C4", "O1", "O2"}
+	const rate, seconds = 256, 30
+	var recs []archive.Recording
+	for _, u := range []struct {
+		dim string
+		per float64 // units per µV
+	}{{"uV", 1}, {"mV", 1e-3}} {
+		sigs := make([]edf.Signal, len(electrodes))
+		for i, e := range electrodes {
+			sigs[i] = edf.Signal{Label: e, PhysDim: u.dim, PhysMin: -500 * u.per, PhysMax: 500 * u.per, DigMin: -32768, DigMax: 32767, SamplesPerRecord: rate}
+		}
+		f, err := os.Create(filepath.Join(dir, u.dim+".edf"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		w, err := edf.NewWriter(f, edf.WriterHeader{Format: edf.EDFPlusC, Start: time.Date(2022, 3, 2, 9, 0, 0, 0, time.UTC), RecordDuration: 1, NumRecords: seconds, Signals: sigs})
+		if err != nil {
+			t.Fatal(err)
+		}
+		rec := make([][]float32, len(electrodes))
+		for r := range seconds {
+			for c := range electrodes {
+				rec[c] = make([]float32, rate)
+				for i := range rate {
+					tt := float64(r) + float64(i)/rate
+					rec[c][i] = float32(40 * math.Sin(2*math.Pi*(9+float64(c))*tt) * u.per)
+				}
+			}
+			if err := w.WriteRecord(rec); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if err := w.Close(); err != nil {
+			t.Fatal(err)
+		}
+		f.Close()
+		recs = append(recs, archive.Recording{RecordingID: u.dim, Path: u.dim + ".edf", EEGChannels: electrodes})
+	}
+	rows := []draw.Row{{EventID: "a", RecordingID: "uV", OnsetS: 15}, {EventID: "b", RecordingID: "mV", OnsetS: 15}}
+	items, _, err := Cut(context.Background(), Options{Rows: rows, Recordings: recs, Roots: []string{dir}, Bandpass: [2]float64{0.5, 70}, NotchHz: 50})
+	if err != nil {
+		t.Fatal(err)
+	}
+	peak := 0.0
+	for c := range items[0].Samples {
+		for i, v := range items[0].Samples[c] {
+			peak = max(peak, math.Abs(float64(v)))
+			if d := math.Abs(float64(items[1].Samples[c][i] - v)); d > 0.05 {
+				t.Fatalf("channel %d sample %d: %g µV from the mV file, %g from the µV file", c, i, items[1].Samples[c][i], v)
+			}
+		}
+	}
+	if peak < 30 || peak > 50 {
+		t.Errorf("largest value %g µV, want about 40", peak)
+	}
+}

@@ -4,17 +4,19 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strings"
 
 	"github.com/quorate-eeg/quorate/sampling/edf"
 	"github.com/quorate-eeg/quorate/sampling/montage"
 )
 
-// edfSource serves the chosen signals of an EDF reader, offset to one
-// segment's first sample. Samples past the end of the file read as zero,
-// which the caller never asks for within a segment.
+// edfSource serves the chosen signals of an EDF reader in µV, offset to
+// one segment's first sample. Samples past the end of the file read as
+// zero, which the caller never asks for within a segment.
 type edfSource struct {
 	r     *edf.Reader
 	sigs  []int
+	scale []float32 // µV per physical unit of each signal (edf.Signal.Microvolts)
 	first int64
 }
 
@@ -22,6 +24,11 @@ func (s *edfSource) ReadAt(ch int, start int64, dst []float32) error {
 	n, err := s.r.ReadSignal(s.sigs[ch], s.first+start, dst)
 	if err == io.EOF && n == len(dst) {
 		err = nil
+	}
+	if k := s.scale[ch]; k != 1 {
+		for i := range dst[:n] {
+			dst[i] *= k
+		}
 	}
 	return err
 }
@@ -51,7 +58,9 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 	}
 	var labels []string
 	var sigs []int
+	var scale []float32
 	var ranges [][2]float64
+	var odd []string // channels whose physical dimension is no voltage unit
 	for i, s := range h.Signals {
 		if s.Kind != edf.EEG || !montage.IsElectrode(s.Name) {
 			continue
@@ -64,9 +73,17 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 			warns = append(warns, fmt.Sprintf("channel %s: unusable scaling (physical %g…%g, digital %d…%d): left out", s.Name, s.PhysMin, s.PhysMax, s.DigMin, s.DigMax))
 			continue
 		}
+		k, ok := s.Microvolts()
+		if !ok {
+			odd = append(odd, fmt.Sprintf("%s %q", s.Name, s.PhysDim))
+		}
 		labels = append(labels, s.Name)
 		sigs = append(sigs, i)
-		ranges = append(ranges, [2]float64{s.PhysMin, s.PhysMax})
+		scale = append(scale, float32(k))
+		ranges = append(ranges, [2]float64{k * s.PhysMin, k * s.PhysMax})
+	}
+	if len(odd) > 0 {
+		warns = append(warns, fmt.Sprintf("physical dimension not uV, mV, V or nV on %d channel(s) (%s): read as µV", len(odd), strings.Join(odd[:min(3, len(odd))], ", ")+map[bool]string{true: ", …"}[len(odd) > 3]))
 	}
 	if len(labels) == 0 {
 		return nil, append(warns, "no usable scalp EEG channels; recording skipped"), nil
@@ -90,7 +107,7 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 			RecordingID: recID, SubjectKey: subject,
 			Labels: labels, PhysRange: ranges, Rate: rate,
 			Len: sg.Records * spr, StartS: sg.Start, FirstSample: first,
-			Src: &edfSource{r: r, sigs: sigs, first: first}, States: states,
+			Src: &edfSource{r: r, sigs: sigs, scale: scale, first: first}, States: states,
 		})
 	}
 	return ins, warns, nil
