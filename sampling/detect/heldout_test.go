@@ -339,6 +339,7 @@ func featuresAtEvents(t *testing.T, dir string, recs []archive.Recording, truth 
 	t.Helper()
 	var feats [6][]float64
 	var meets [6][]bool
+	kindC1 := map[string][]float64{} // c1 and main-phase duration per kind built to fail c1
 	measured, total := 0, 0
 	for k, r := range recs {
 		rd, err := edf.Open(filepath.Join(dir, r.Path))
@@ -366,6 +367,9 @@ func featuresAtEvents(t *testing.T, dir string, recs []archive.Recording, truth 
 			}
 			measured++
 			f := rows[j].Features()
+			if !e.Meets[0] && !e.Unclear[0] {
+				kindC1[e.Kind] = append(kindC1[e.Kind], f[0], rows[j].C1DurationMS)
+			}
 			j++
 			for c := range 6 {
 				if !math.IsNaN(f[c]) && !e.Unclear[c] {
@@ -378,6 +382,15 @@ func featuresAtEvents(t *testing.T, dir string, recs []archive.Recording, truth 
 	t.Logf("at the generated events' own peaks (MeasureAt, %d of %d events measured):", measured, total)
 	for c := range 6 {
 		t.Logf("  c%d %s AUC %.3f (n = %d, %d built to meet)", c+1, candidate.FeatureNames[c], auc(feats[c], meets[c]), len(feats[c]), countTrue(meets[c]))
+	}
+	for k, v := range kindC1 {
+		var c1, dur []float64
+		for i := 0; i < len(v); i += 2 {
+			c1, dur = append(c1, v[i]), append(dur, v[i+1])
+		}
+		slices.Sort(c1)
+		slices.Sort(dur)
+		t.Logf("  built to fail c1: %-14s n = %3d, median c1 %.2f, median main phase %.0f ms", k, len(c1), c1[len(c1)/2], dur[len(dur)/2])
 	}
 }
 
