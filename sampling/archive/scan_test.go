@@ -203,26 +203,35 @@ func TestSubjectKeyFoldsSpacingAndCase(t *testing.T) {
 }
 
 // A non-ASCII patient field once put the raw field (name, birth date) into
-// problems.csv; the field and byte offset are listed, the content is withheld.
+// problems.csv. Such a field is now read as Latin-1 (edf.TestLatin1FreeText)
+// and the recording indexed with a warning that names the field and
+// withholds its content; problems.csv stays empty.
 func TestProblemsWithholdIdentification(t *testing.T) {
 	arch := t.TempDir()
 	p := filepath.Join(arch, "r.edf")
 	writeEDF(t, p, "MCH-0009 F 03-MAR-1980 Fictional_Zoe", 2, 0)
 	b, _ := os.ReadFile(p)
-	copy(b[8+22:], "Fictïonal_Zoë") // non-ASCII bytes in the patient field
+	copy(b[8+22:], "Fict\xefonal_Zo\xeb") // Latin-1 bytes in the patient field
 	os.WriteFile(p, b, 0o644)
 	idx := t.TempDir()
-	if _, err := Run(context.Background(), Options{Roots: []string{arch}, Secret: secret, IndexDir: idx}); err != nil {
+	res, err := Run(context.Background(), Options{Roots: []string{arch}, Secret: secret, IndexDir: idx})
+	if err != nil {
 		t.Fatal(err)
 	}
 	raw, _ := os.ReadFile(filepath.Join(idx, ProblemsFile))
-	probs := readProblems(t, filepath.Join(idx, ProblemsFile))
-	if len(probs) != 1 || probs[0][1] != "local patient identification" || probs[0][2] != "8" {
-		t.Fatalf("problems %q, want the patient field at byte 8", probs)
+	if probs := readProblems(t, filepath.Join(idx, ProblemsFile)); len(probs) != 0 {
+		t.Fatalf("problems %q, want none", probs)
+	}
+	if len(res.Recordings) != 1 {
+		t.Fatalf("%d recordings indexed, want 1", len(res.Recordings))
+	}
+	warned := strings.Join(res.Recordings[0].Warnings, "\n")
+	if !strings.Contains(warned, "local patient identification") {
+		t.Errorf("warnings %q do not name the patient field", warned)
 	}
 	for _, leak := range []string{"Fict", "1980", "MCH-0009", "Zo"} {
-		if strings.Contains(string(raw), leak) {
-			t.Errorf("problems.csv carries %q: %s", leak, raw)
+		if strings.Contains(string(raw), leak) || strings.Contains(warned, leak) {
+			t.Errorf("problems.csv or the warnings carry %q: %s / %s", leak, raw, warned)
 		}
 	}
 }

@@ -54,8 +54,8 @@ func TestBadInputs(t *testing.T) {
 		{"BDF marker under EDF version", setField(good, 192, 44, "24BIT"), "reserved", 192},
 		{"BDF data under EDF version", append(setField(goodBDF[:1], 0, 8, "0"), goodBDF[8:]...), "version", 0},
 		{"EDF data under BDF version", append([]byte("\xffBIOSEMI"), writeFile(t, EDF, testSignals()[:1], 2, nil, nil)[8:]...), "version", 0},
-		{"non-ASCII label", setField(good, 256, 16, "Fp1\xe9"), "label", 256},
-		{"non-ASCII patient", setField(good, 8, 80, "Zo\xeb"), "local patient identification", 8},
+		{"non-ASCII digital minimum", setField(good, digMin1, 8, "-2048\xb5"), "digital minimum", digMin1},
+		{"non-ASCII start date", setField(good, 168, 8, "05.03.2\xb4"), "startdate of recording", 168},
 		{"EDF+D onsets out of order", setTKAL(goodD, 2, "+4"), "time-keeping annotation", tkalOffset(goodD, 2)},
 		{"missing time-keeping annotation", setTKAL(good, 1, "+1\x14x"), "time-keeping annotation", tkalOffset(good, 1)},
 		{"malformed TAL", setTKAL(good, 1, "1"), "annotation", tkalOffset(good, 1)},
@@ -114,5 +114,40 @@ func TestWarnings(t *testing.T) {
 	r = open(t, setField(good, 236, 8, "-1"))
 	if r.NumRecords() != 2 || len(r.Header().Warnings) != 1 {
 		t.Errorf("-1 records: %d, %q", r.NumRecords(), r.Header().Warnings)
+	}
+}
+
+// TestLatin1FreeText checks that a byte outside printable US-ASCII in a
+// free-text header field — a Latin-1 micro sign in the physical dimension,
+// an accented letter in a label or in the patient's name, NUL padding — is
+// read as its ISO/IEC 8859-1 character (control bytes as spaces) with a
+// warning naming the field, instead of refusing the recording (Kemp et al.
+// 1992 ask for ASCII; many writers do not keep to it).
+func TestLatin1FreeText(t *testing.T) {
+	good := writeFile(t, EDFPlusC, testSignals(), 3, nil, nil)
+	// ns = 4: labels at 256 (16 bytes each), transducers at 320 (80 each),
+	// physical dimensions at 640 (8 each)
+	b := setField(good, 8, 80, "X X X Zo\xeb")
+	b = setField(b, 256, 16, "Fp1\xe9")
+	b = setField(b, 640, 8, "\xb5V\x00\x00")
+	r, err := NewReader(bytes.NewReader(b), int64(len(b)), "rec01.edf")
+	if err != nil {
+		t.Fatal(err)
+	}
+	h := r.Header()
+	if h.PatientID != "X X X Zoë" || h.Signals[0].Label != "Fp1é" || h.Signals[0].PhysDim != "µV" {
+		t.Errorf("patient %q, label %q, dimension %q", h.PatientID, h.Signals[0].Label, h.Signals[0].PhysDim)
+	}
+	if k, ok := h.Signals[0].Microvolts(); k != 1 || !ok {
+		t.Errorf("µV read as %g, %v", k, ok)
+	}
+	warned := strings.Join(h.Warnings, "\n")
+	for _, f := range []string{"local patient identification", "label of 1 signal", "physical dimension of 1 signal"} {
+		if !strings.Contains(warned, f) {
+			t.Errorf("no warning for %s in %q", f, warned)
+		}
+	}
+	if err := readErr(b); err != nil {
+		t.Errorf("reading the records: %v", err)
 	}
 }

@@ -170,6 +170,42 @@ func (p *headerParser) sigField(k, i int) (string, int) {
 	return string(p.b[off : off+w]), off
 }
 
+// fixedText and signalText mark the header's free-text fields (by index
+// into fixedFields and signalFields): patient and recording
+// identification, reserved; label, transducer type, physical dimension,
+// prefiltering, reserved. The specification asks for printable US-ASCII
+// throughout, but recordings from many writers carry a Latin-1 "µV" or an
+// accented name there; refusing the file for it would lose the recording,
+// so those bytes are read as Latin-1 with a warning (latin1Text). Numbers,
+// dates and times stay strict: there a stray byte means the field cannot
+// be read.
+var (
+	fixedText  = map[int]bool{1: true, 2: true, 6: true}
+	signalText = [...]bool{0: true, 1: true, 2: true, 7: true, 9: true}
+)
+
+// latin1Text reads a free-text header field: printable US-ASCII as it is,
+// bytes 160–255 as the Latin-1 (ISO/IEC 8859-1) characters they encode,
+// and control bytes (0–31, 127–159; NUL padding among them) as spaces.
+// changed reports whether any byte was not printable US-ASCII.
+func latin1Text(s string) (t string, changed bool) {
+	if ascii(s) < 0 {
+		return s, false
+	}
+	var b strings.Builder
+	for i := 0; i < len(s); i++ {
+		switch c := s[i]; {
+		case c >= 32 && c < 127:
+			b.WriteByte(c)
+		case c >= 160:
+			b.WriteRune(rune(c))
+		default:
+			b.WriteByte(' ')
+		}
+	}
+	return b.String(), true
+}
+
 // ascii checks that b holds only printable US-ASCII (bytes 32..126), as the
 // EDF specification requires of every header character.
 func ascii(s string) int {
@@ -288,19 +324,30 @@ func (p *headerParser) parseFixed(h *Header) error {
 		return p.err("version", -1, 0, `"0" padded with spaces (EDF) or 0xFF "BIOSEMI" (BDF)`)
 	}
 	h.Version = strings.TrimSpace(version)
-	// Every other fixed field must be printable US-ASCII.
+	// Every other fixed field must be printable US-ASCII; the free-text
+	// ones are read as Latin-1 when they are not (fixedText).
 	for i := 1; i < len(fixedFields); i++ {
+		if fixedText[i] {
+			continue
+		}
 		s, off := p.fixed(i)
 		if j := ascii(s); j >= 0 {
 			return p.err(fixedFields[i].name, -1, off, "printable US-ASCII (byte "+strconv.Itoa(off+j)+" is not)")
 		}
 	}
-	s, _ := p.fixed(1)
-	h.PatientID = strings.TrimSpace(s)
-	s, _ = p.fixed(2)
-	h.RecordingID = strings.TrimSpace(s)
+	text := func(i int) string {
+		s, _ := p.fixed(i)
+		t, odd := latin1Text(s)
+		if odd {
+			h.Warnings = append(h.Warnings, fmt.Sprintf("%s holds bytes outside printable US-ASCII; read as Latin-1", fixedFields[i].name))
+		}
+		return t
+	}
+	h.PatientID = strings.TrimSpace(text(1))
+	h.RecordingID = strings.TrimSpace(text(2))
 
-	s, off := p.fixed(6)
+	s := text(6)
+	_, off := p.fixed(6)
 	h.Reserved = strings.TrimSpace(s)
 	switch {
 	case !bdf && strings.HasPrefix(s, "EDF+C"):
@@ -450,6 +497,9 @@ func (p *headerParser) parseSignals(h *Header) error {
 	ns := p.ns
 	h.Signals = make([]Signal, ns)
 	for k := range signalFields {
+		if signalText[k] {
+			continue
+		}
 		for i := 0; i < ns; i++ {
 			s, off := p.sigField(k, i)
 			if j := ascii(s); j >= 0 {
@@ -457,6 +507,22 @@ func (p *headerParser) parseSignals(h *Header) error {
 			}
 		}
 	}
+	var odd [len(signalText)]int // signals whose free-text field k was not ASCII
+	text := func(k, i int) string {
+		s, _ := p.sigField(k, i)
+		t, changed := latin1Text(s)
+		if changed {
+			odd[k]++
+		}
+		return t
+	}
+	defer func() {
+		for k, n := range odd {
+			if n > 0 {
+				h.Warnings = append(h.Warnings, fmt.Sprintf("%s of %d signal(s) holds bytes outside printable US-ASCII; read as Latin-1", signalFields[k].name, n))
+			}
+		}
+	}()
 	lo, hi := int64(-32768), int64(32767)
 	if h.Format.Is24Bit() {
 		lo, hi = int24Min, int24Max
@@ -464,13 +530,10 @@ func (p *headerParser) parseSignals(h *Header) error {
 	allAnnot := true
 	for i := 0; i < ns; i++ {
 		sg := &h.Signals[i]
-		s, _ := p.sigField(0, i)
-		sg.Label = strings.TrimSpace(s)
+		sg.Label = strings.TrimSpace(text(0, i))
 		sg.Name, sg.Kind = NormalizeLabel(sg.Label)
-		s, _ = p.sigField(1, i)
-		sg.Transducer = strings.TrimSpace(s)
-		s, _ = p.sigField(2, i)
-		sg.PhysDim = strings.TrimSpace(s)
+		sg.Transducer = strings.TrimSpace(text(1, i))
+		sg.PhysDim = strings.TrimSpace(text(2, i))
 		var err error
 		s, off := p.sigField(3, i)
 		if sg.PhysMin, err = p.float("physical minimum", i, s, off); err != nil {
@@ -497,8 +560,7 @@ func (p *headerParser) parseSignals(h *Header) error {
 			return p.err("digital maximum", i, off, fmt.Sprintf("an integer in [%d, %d]", lo, hi))
 		}
 		sg.DigMin, sg.DigMax = int(dmin), int(dmax)
-		s, _ = p.sigField(7, i)
-		sg.Prefilter = strings.TrimSpace(s)
+		sg.Prefilter = strings.TrimSpace(text(7, i))
 		s, off = p.sigField(8, i)
 		spr, err := p.int("nr of samples in each data record", i, s, off)
 		if err != nil {
@@ -508,8 +570,7 @@ func (p *headerParser) parseSignals(h *Header) error {
 			return p.err("nr of samples in each data record", i, off, "a positive integer")
 		}
 		sg.SamplesPerRecord = int(spr)
-		s, _ = p.sigField(9, i)
-		sg.Reserved = strings.TrimSpace(s)
+		sg.Reserved = strings.TrimSpace(text(9, i))
 
 		if sg.IsAnnotation() {
 			if !h.Format.IsPlus() {

@@ -6,7 +6,8 @@ import "strings"
 // microvolts, read from its physical dimension with the SI prefixes the
 // EDF+ specification recommends for it (Kemp & Olivan 2003, section
 // 2.1.3.2: "uV", "mV", "V", "nV"): 1 for uV (also written µV, with the
-// micro sign or the Greek mu, or in either case), 1000 for mV, 10⁶ for V,
+// micro sign — the header reader turns a Latin-1 one into it — or the
+// Greek mu, in either case), 1000 for mV, 10⁶ for V,
 // 0.001 for nV. ok is false for an empty or any other dimension, for which
 // the factor is 1: scalp EEG is recorded in µV almost everywhere, and
 // "MV" (megavolt) or a blank field is far likelier a careless µV than
@@ -22,8 +23,6 @@ func (s *Signal) Microvolts() (factor float64, ok bool) {
 		return 1e3, true
 	case "nV":
 		return 1e-3, true
-	case "\xb5V", "\xb5v": // the micro sign in Latin-1, as some writers put it
-		return 1, true
 	}
 	switch strings.ToLower(d) {
 	case "uv", "µv", "μv":

@@ -13,7 +13,7 @@ func TestMicrovolts(t *testing.T) {
 		factor float64
 		ok     bool
 	}{
-		{"uV", 1, true}, {" uV  ", 1, true}, {"UV", 1, true}, {"µV", 1, true}, {"μV", 1, true}, {"\xb5V", 1, true},
+		{"uV", 1, true}, {" uV  ", 1, true}, {"UV", 1, true}, {"µV", 1, true}, {"μV", 1, true},
 		{"mV", 1e3, true}, {"V", 1e6, true}, {"nV", 1e-3, true},
 		{"", 1, false}, {"MV", 1, false}, {"mmHg", 1, false}, {"%", 1, false},
 	} {
