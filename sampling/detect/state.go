@@ -21,16 +21,24 @@ const (
 
 // stagePatterns recognise the usual wordings of sleep-stage annotations (the stages of
 // the AASM scoring manual, Berry et al. 2017: W, N1, N2, N3, R; and the older
-// Rechtschaffen & Kales 1968 stages 1–4 and REM). The first match wins.
+// Rechtschaffen & Kales 1968 stages 1–4 and REM), with or without a "sleep stage" or
+// "stage" in front ("Sleep stage N2", "Stage 2", "sleep_stage_2", "stage: N2") and with
+// the NREM stages also written "NREM 2" or "N 2". The first match wins.
 var stagePatterns = []struct {
 	re    *regexp.Regexp
 	state string
 }{
-	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(w|wake|awake|wakefulness)\s*$`), StateAwake},
-	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(n1|s1|1|drowsy|drowsiness)\s*$`), StateDrowsy},
-	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(n2|s2|2)\s*$`), StateN2},
-	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(n3|s3|s4|3|4)\s*$`), StateN3},
-	{regexp.MustCompile(`(?i)^\s*(sleep\s+stage\s+)?(r|rem)\s*$`), StateREM},
+	{stagePattern(`w|wake|awake|wakefulness`), StateAwake},
+	{stagePattern(`n\s?1|nrem\s?1|s1|1|drowsy|drowsiness`), StateDrowsy},
+	{stagePattern(`n\s?2|nrem\s?2|s2|2`), StateN2},
+	{stagePattern(`n\s?3|nrem\s?[34]|s3|s4|3|4`), StateN3},
+	{stagePattern(`r|rem`), StateREM},
+}
+
+// stagePattern matches one stage's names, whole and in any case, after an optional
+// "sleep stage" or "stage" (spaces, underscores or a colon between the words).
+func stagePattern(names string) *regexp.Regexp {
+	return regexp.MustCompile(`(?i)^\s*((sleep[\s_]*)?stage[\s_:]*)?(` + names + `)\s*$`)
 }
 
 // StageOf returns the vigilance state an annotation text names, or "" when it names

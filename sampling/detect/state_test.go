@@ -14,7 +14,9 @@ func TestStageOf(t *testing.T) {
 		"Sleep stage N1": StateDrowsy, "Sleep stage 1": StateDrowsy, "drowsy": StateDrowsy,
 		"Sleep stage N2": StateN2, "Sleep stage 3": StateN3, "Sleep stage 4": StateN3, "N3": StateN3,
 		"Sleep stage R": StateREM, "REM": StateREM,
-		"spike": "", "Wicket": "", "eyes closed": "", "Sleep stage ?": "",
+		"Stage 2": StateN2, "stage N2": StateN2, "sleep_stage_2": StateN2, "Stage: N2": StateN2, "NREM 2": StateN2,
+		"NREM2": StateN2, "N 2": StateN2, "NREM 4": StateN3, "Stage W": StateAwake, "Stage R": StateREM,
+		"spike": "", "Wicket": "", "eyes closed": "", "Sleep stage ?": "", "stage": "", "N22": "", "Stage 5": "",
 	}
 	for text, want := range cases {
 		if got := StageOf(text); got != want {
