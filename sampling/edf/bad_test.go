@@ -151,3 +151,33 @@ func TestLatin1FreeText(t *testing.T) {
 		t.Errorf("reading the records: %v", err)
 	}
 }
+
+// TestNULPadding checks that header fields padded with NUL bytes where Kemp
+// et al. (1992) ask for spaces — a number, a label — are read as if padded
+// with spaces, with a warning; a NUL inside a number still refuses it.
+func TestNULPadding(t *testing.T) {
+	good := writeFile(t, EDFPlusC, testSignals(), 3, nil, nil)
+	// ns = 4: labels at 256, nr of samples of signal 0 at 256 + 4×(16+80+8+8+8+8+8+80) = 1120
+	const spr0 = 1120
+	nul := func(s string, width int) string { return s + strings.Repeat("\x00", width-len(s)) }
+	b := setField(good, 256, 16, nul("Fp1", 16))
+	b = setField(b, spr0, 8, nul("256", 8))
+	b = setField(b, 236, 8, nul("3", 8))
+	r, err := NewReader(bytes.NewReader(b), int64(len(b)), "rec01.edf")
+	if err != nil {
+		t.Fatal(err)
+	}
+	h := r.Header()
+	if h.Signals[0].Label != "Fp1" || h.Signals[0].SamplesPerRecord != 256 || h.NumRecords != 3 {
+		t.Errorf("label %q, samples per record %d, records %d", h.Signals[0].Label, h.Signals[0].SamplesPerRecord, h.NumRecords)
+	}
+	if !strings.Contains(strings.Join(h.Warnings, "\n"), "NUL") {
+		t.Errorf("no warning: %q", h.Warnings)
+	}
+	bad := setField(good, spr0, 8, "25\x006")
+	if err := readErr(bad); err == nil {
+		t.Errorf("a NUL inside a number was accepted")
+	} else {
+		fieldErr(t, err, "nr of samples in each data record")
+	}
+}

@@ -118,9 +118,10 @@ var signalFields = []struct {
 
 // headerParser carries the file name and raw bytes for error reporting.
 type headerParser struct {
-	name string
-	b    []byte
-	ns   int
+	name   string
+	b      []byte
+	ns     int
+	nulPad bool // some field ended in NUL bytes, read as the spaces they stand for
 }
 
 func (p *headerParser) err(field string, sig int, off int, want string) *FieldError {
@@ -156,7 +157,21 @@ func fieldWidth(field string, sig int) int {
 // fixed returns the raw text of a fixed-header field and its offset.
 func (p *headerParser) fixed(i int) (string, int) {
 	f := fixedFields[i]
-	return string(p.b[f.off : f.off+f.width]), f.off
+	return p.unpad(p.b[f.off : f.off+f.width]), f.off
+}
+
+// unpad returns a field's text with trailing NUL bytes as spaces: some writers
+// pad fields with NULs where the specification asks for spaces.
+func (p *headerParser) unpad(b []byte) string {
+	n := len(b)
+	for n > 0 && b[n-1] == 0 {
+		n--
+	}
+	if n == len(b) {
+		return string(b)
+	}
+	p.nulPad = true
+	return string(b[:n]) + strings.Repeat(" ", len(b)-n)
 }
 
 // sigField returns the raw text of field k of signal i and its offset.
@@ -167,7 +182,7 @@ func (p *headerParser) sigField(k, i int) (string, int) {
 	}
 	w := signalFields[k].width
 	off += i * w
-	return string(p.b[off : off+w]), off
+	return p.unpad(p.b[off : off+w]), off
 }
 
 // fixedText and signalText mark the header's free-text fields (by index
@@ -297,6 +312,9 @@ func ReadHeader(r io.Reader, name string) (*Header, error) {
 	p.b = append(fixed, rest...)
 	if err := p.parseSignals(h); err != nil {
 		return nil, err
+	}
+	if p.nulPad {
+		h.Warnings = append(h.Warnings, "header fields padded with NUL bytes instead of spaces; read as spaces")
 	}
 	return h, nil
 }
