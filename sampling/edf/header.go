@@ -27,8 +27,8 @@ type Header struct {
 // Signal is one signal's header fields (Kemp et al. 1992, header record).
 type Signal struct {
 	Label            string      // raw label, trimmed
-	Name             string      // NormalizeLabel(Label)
-	Kind             ChannelKind // NormalizeLabel(Label)
+	Name             string      // NormalizeLabel(Label); the first electrode of a derivation against a common reference (commonReference)
+	Kind             ChannelKind // NormalizeLabel(Label); EEG for such a derivation
 	Transducer       string
 	PhysDim          string // physical dimension, e.g. "uV"
 	PhysMin, PhysMax float64
@@ -313,6 +313,7 @@ func ReadHeader(r io.Reader, name string) (*Header, error) {
 	if err := p.parseSignals(h); err != nil {
 		return nil, err
 	}
+	commonReference(h)
 	if p.nulPad {
 		h.Warnings = append(h.Warnings, "header fields padded with NUL bytes instead of spaces; read as spaces")
 	}
