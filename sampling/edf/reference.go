@@ -6,8 +6,9 @@ import (
 )
 
 // commonReference finds signals recorded against one common reference
-// electrode and labelled as derivations from it ("Fp1-Cz", "EEG F3-Cz",
-// …), which NormalizeLabel, seeing two electrode names, leaves as Other,
+// and labelled as derivations from it ("Fp1-Cz", "EEG F3-Cz", …, or
+// against a reference the amplifier names, "Fp1-G19"), which
+// NormalizeLabel, seeing two names, leaves as Other,
 // and makes them the EEG electrodes they are (Name "Fp1", Kind EEG): a
 // derivation against a common reference is a referential recording, and
 // the common average built from such channels is the same whatever the
@@ -60,7 +61,11 @@ func commonReference(h *Header) {
 		names = append(names, h.Signals[p.sig].Label)
 	}
 	if len(names) > 0 {
-		h.Warnings = append(h.Warnings, fmt.Sprintf("%d signals are derivations against %s (%s…): read as referential electrodes; %s itself is not recorded and is left out of every montage", len(names), ref, names[0], ref))
+		w := fmt.Sprintf("%d signals are derivations against %s (%s…): read as referential electrodes", len(names), ref, names[0])
+		if _, k := NormalizeLabel(ref); k == EEG {
+			w += "; " + ref + " itself is not recorded and is left out of every montage"
+		}
+		h.Warnings = append(h.Warnings, w)
 	}
 }
 
@@ -69,8 +74,9 @@ const (
 	refShare       = 0.8
 )
 
-// electrodePair splits a label such as "EEG Fp1-Cz" into its two 10-10
-// scalp electrodes, canonical, when it is one.
+// electrodePair splits a label such as "EEG Fp1-Cz" into its 10-10 scalp
+// electrode and what it is measured against: another electrode
+// (canonical) or a reference's name (upper case, one word).
 func electrodePair(label string) (first, second string, ok bool) {
 	s := strings.TrimSpace(label)
 	if i := strings.IndexAny(s, " :"); i > 0 && strings.EqualFold(s[:i], "EEG") {
@@ -81,9 +87,16 @@ func electrodePair(label string) (first, second string, ok bool) {
 		return "", "", false
 	}
 	na, ka := NormalizeLabel(a)
-	nb, kb := NormalizeLabel(b)
-	if ka != EEG || kb != EEG {
+	if ka != EEG {
 		return "", "", false
 	}
-	return na, nb, true
+	if nb, kb := NormalizeLabel(b); kb == EEG {
+		return na, nb, true
+	}
+	// a reference named by the amplifier rather than a site ("G19", "Ref2")
+	b = strings.TrimSpace(b)
+	if b == "" || strings.ContainsAny(b, " \t") {
+		return "", "", false
+	}
+	return na, strings.ToUpper(b), true
 }
