@@ -1,6 +1,7 @@
 package parquetfile
 
 import (
+	"encoding/binary"
 	"errors"
 	"fmt"
 	"io"
@@ -47,6 +48,9 @@ func Read[T any](path string) (out []T, err error) {
 			out, err = nil, &FileError{Path: path, Detail: fmt.Sprint(p), Err: ErrDamaged}
 		}
 	}()
+	if err := footerFits(f, st.Size()); err != nil {
+		return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrDamaged}
+	}
 	pf, err := parquet.OpenFile(f, st.Size())
 	if err != nil {
 		return nil, &FileError{Path: path, Detail: err.Error(), Err: ErrDamaged}
@@ -80,6 +84,27 @@ func Read[T any](path string) (out []T, err error) {
 		out = []T{}
 	}
 	return out, nil
+}
+
+// footerFits checks the file's tail before parquet-go reads it: a Parquet
+// file is "PAR1", the column chunks, the footer, the footer's length (4
+// bytes, little-endian) and "PAR1" (Apache Parquet format specification,
+// file format). parquet-go allocates the footer's claimed length before it
+// reads, so a damaged 100-byte file claiming a 4 GB footer once made Read
+// allocate 400 MB (and a fuzzing worker die); a length that does not fit in
+// the file is damage.
+func footerFits(f io.ReaderAt, size int64) error {
+	if size < 12 {
+		return fmt.Errorf("%d bytes: shorter than a Parquet file's magic numbers and footer length", size)
+	}
+	var tail [8]byte
+	if _, err := f.ReadAt(tail[:], size-8); err != nil {
+		return err
+	}
+	if n := int64(binary.LittleEndian.Uint32(tail[:4])); n > size-12 {
+		return fmt.Errorf("footer claims %d bytes in a file of %d", n, size)
+	}
+	return nil
 }
 
 // MaxRows bounds the rows a table may claim: far above any study's (a year of

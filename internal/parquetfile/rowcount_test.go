@@ -4,6 +4,7 @@ import (
 	"encoding/binary"
 	"errors"
 	"os"
+	"runtime"
 	"strings"
 	"testing"
 
@@ -60,5 +61,36 @@ func TestReadFooterRowCount(t *testing.T) {
 		case c.want != "" && (!errors.Is(err, ErrDamaged) || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), p)):
 			t.Errorf("%s: got %v, want ErrDamaged naming the file and %q", c.name, err, c.want)
 		}
+	}
+}
+
+// A footer length (the 4 bytes before the closing "PAR1", Apache Parquet
+// format specification) larger than the file is refused as damage before
+// parquet-go, which allocates the claimed length first, reads it: a 4 GB
+// claim once made Read allocate hundreds of megabytes for a small file.
+func TestReadFooterLength(t *testing.T) {
+	p, b := written(t)
+	for _, n := range []uint32{uint32(len(b)), 1 << 31, 0xffffffff} {
+		c := append([]byte{}, b...)
+		binary.LittleEndian.PutUint32(c[len(c)-8:], n)
+		if err := os.WriteFile(p, c, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		var m0, m1 runtime.MemStats
+		runtime.ReadMemStats(&m0)
+		_, err := Read[row](p)
+		runtime.ReadMemStats(&m1)
+		if !errors.Is(err, ErrDamaged) || !strings.Contains(err.Error(), "footer claims") {
+			t.Errorf("footer length %d: %v, want ErrDamaged naming the footer", n, err)
+		}
+		if a := m1.TotalAlloc - m0.TotalAlloc; a > 16<<20 {
+			t.Errorf("footer length %d: %d MB allocated", n, a>>20)
+		}
+	}
+	if err := os.WriteFile(p, []byte("PAR1"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Read[row](p); !errors.Is(err, ErrDamaged) {
+		t.Errorf("4-byte file: %v", err)
 	}
 }
