@@ -5,21 +5,20 @@ import (
 	"strings"
 )
 
-// commonReference finds signals recorded against one common reference
-// and labelled as derivations from it ("Fp1-Cz", "EEG F3-Cz", …, or
-// against a reference the amplifier names, "Fp1-G19"), which
-// NormalizeLabel, seeing two names, leaves as Other,
-// and makes them the EEG electrodes they are (Name "Fp1", Kind EEG): a
-// derivation against a common reference is a referential recording, and
-// the common average built from such channels is the same whatever the
-// reference (the reference's own potential cancels; common practice). It
-// acts only when at least minRefChannels signals share the second
-// electrode and they are at least refShare of the two-electrode labels,
-// so a bipolar chain ("Fp1-F7", "F7-T7", …), whose second electrodes
-// differ, stays as it is. A derivation whose first electrode is already
-// an EEG signal of its own is left alone. The reference electrode itself
-// is not recorded and is missing from every montage and map; a warning
-// says so.
+// commonReference finds signals recorded against one common reference and
+// labelled as derivations from it ("Fp1-Cz", "EEG F3-Cz", …, or against a
+// reference the amplifier names, "Fp1-G19"), which NormalizeLabel, seeing
+// two names, leaves as Other, and makes them the EEG electrodes they are
+// (Name "Fp1", Kind EEG): a derivation against a common reference is a
+// referential recording, and the common average built from such channels
+// is the same whatever the reference (the reference's own potential
+// cancels; common practice). It acts only when at least minRefChannels
+// signals share the reference and they are at least refShare of the
+// two-part labels, so a bipolar chain ("Fp1-F7", "F7-T7", …), whose second
+// electrodes differ, stays as it is. A derivation whose first electrode is
+// already an EEG signal of its own is left alone. A reference electrode is
+// not recorded and is missing from every montage and map; a warning says
+// so.
 func commonReference(h *Header) {
 	type pair struct {
 		sig           int
