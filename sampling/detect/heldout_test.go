@@ -3,6 +3,7 @@ package detect
 import (
 	"context"
 	"fmt"
+	"maps"
 	"math"
 	"os"
 	"path/filepath"
@@ -47,24 +48,23 @@ func TestHeldOutGenerator(t *testing.T) {
 		id := fmt.Sprintf("tb-%d", seed)
 		// the twin: the same seed without events, the same background
 		// sample for sample (the background is drawn before the events)
-		for _, c := range []struct {
+		var g [2]*synth.Recording
+		for k, c := range []struct {
 			dir        string
 			ieds, look float64
 		}{{dir, 6, 10}, {twinDir, 0, 0}} {
-			g, err := textbook.Generate(textbook.Config{Seed: seed, Duration: 240, IEDRate: c.ieds, LookalikeRate: c.look})
-			if err != nil {
+			var err error
+			if g[k], err = textbook.Generate(textbook.Config{Seed: seed, Duration: 240, IEDRate: c.ieds, LookalikeRate: c.look}); err != nil {
 				t.Fatal(err)
 			}
-			if err := textbook.WriteEDF(filepath.Join(c.dir, id+".edf"), "X X X X", "Startdate X X X X", time.Date(2024, 1, 1, 0, 0, 0, 0, time.UTC), g); err != nil {
+			if err := textbook.WriteEDF(filepath.Join(c.dir, id+".edf"), "X X X X", "Startdate X X X X", time.Date(2024, 1, 1, 0, 0, 0, 0, time.UTC), g[k]); err != nil {
 				t.Fatal(err)
-			}
-			if c.dir == dir {
-				truth = append(truth, g.Truth)
 			}
 		}
+		checkTwin(t, seed, g[0], g[1])
+		truth = append(truth, g[0].Truth)
 		recs = append(recs, archive.Recording{RecordingID: id, Path: id + ".edf"})
 	}
-	checkTwin(t, heldOutSeeds[0], truth[0])
 	f := measureArchive(t, dir, recs, truth, 4*float64(len(heldOutSeeds)), twinDir)
 	featuresAtEvents(t, dir, recs, truth)
 	// Floors far below the measured figures (FEATURES.md, held-out), so the
@@ -303,18 +303,10 @@ func measureArchive(t *testing.T, dir string, recs []archive.Recording, truth []
 // checkTwin asserts what the held-out test's split of extra rows rests
 // on: without events, the second generator's recording is the same
 // background sample for sample up to the first event.
-func checkTwin(t *testing.T, seed uint64, truth []synth.Event) {
+func checkTwin(t *testing.T, seed uint64, with, without *synth.Recording) {
 	t.Helper()
-	with, err := textbook.Generate(textbook.Config{Seed: seed, Duration: 240, IEDRate: 6, LookalikeRate: 10})
-	if err != nil {
-		t.Fatal(err)
-	}
-	without, err := textbook.Generate(textbook.Config{Seed: seed, Duration: 240})
-	if err != nil {
-		t.Fatal(err)
-	}
-	first := int(with.Rate * 240)
-	for _, e := range truth {
+	first := len(with.Data[0])
+	for _, e := range with.Truth {
 		first = min(first, int(e.Start*with.Rate))
 	}
 	if first < int(with.Rate) {
@@ -383,7 +375,8 @@ func featuresAtEvents(t *testing.T, dir string, recs []archive.Recording, truth 
 	for c := range 6 {
 		t.Logf("  c%d %s AUC %.3f (n = %d, %d built to meet)", c+1, candidate.FeatureNames[c], auc(feats[c], meets[c]), len(feats[c]), countTrue(meets[c]))
 	}
-	for k, v := range kindC1 {
+	for _, k := range slices.Sorted(maps.Keys(kindC1)) {
+		v := kindC1[k]
 		var c1, dur []float64
 		for i := 0; i < len(v); i += 2 {
 			c1, dur = append(c1, v[i]), append(dur, v[i+1])
