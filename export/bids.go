@@ -7,6 +7,7 @@ import (
 	"path"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -292,6 +293,7 @@ func bidsChannels(o *Options, rec *archive.Recording) [][]string {
 			defer r.Close()
 			h := r.Header()
 			var rows [][]string
+			terms := h.TermSignals()
 			for i := range h.Signals {
 				s := &h.Signals[i]
 				if s.IsAnnotation() {
@@ -300,6 +302,9 @@ func bidsChannels(o *Options, rec *archive.Recording) [][]string {
 				typ, ok := bidsTypes[s.Kind]
 				if !ok {
 					typ = "MISC"
+				}
+				if slices.Contains(terms, i) {
+					typ = "EEG" // a bipolar derivation of scalp electrodes
 				}
 				rows = append(rows, []string{s.Name, typ, s.PhysDim,
 					strconv.FormatFloat(s.SampleRate(h.RecordDuration), 'g', -1, 64), ""})

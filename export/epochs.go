@@ -84,18 +84,19 @@ func writeEpochs(ctx context.Context, w io.Writer, o *Options, kind montage.Kind
 
 // epocher reads windows from one recording.
 type epocher struct {
-	recID   string
-	r       *edf.Reader
-	sigs    []int     // the EEG signals used, all of one sample rate
-	scale   []float32 // per used signal: factor to microvolts
-	spr     int64     // samples per record of those signals
-	rate    float64
-	segs    []edf.Segment
-	mont    *montage.Montage
-	names   []string
-	montage string
-	rec     [][]float32 // one data record, per header signal (nil for unused)
-	in, out [][]float32
+	recID     string
+	r         *edf.Reader
+	sigs      []int     // the EEG signals used, all of one sample rate; −1−k for recovered electrode k (edf.Header.Recovered)
+	scale     []float32 // per used signal: factor to microvolts
+	spr       int64     // samples per record of those signals
+	rate      float64
+	segs      []edf.Segment
+	mont      *montage.Montage
+	names     []string
+	montage   string
+	rec       [][]float32 // one data record, per header signal (nil for unused)
+	recovered []float32   // one record of a recovered electrode (edf.Header.Recovered)
+	in, out   [][]float32
 }
 
 func openEpocher(o *Options, rec *archive.Recording, kind montage.Kind) (*epocher, error) {
@@ -125,12 +126,25 @@ func openEpocher(o *Options, rec *archive.Recording, kind montage.Kind) (*epoche
 			best = s.SamplesPerRecord
 		}
 	}
-	if best == 0 {
+	var labels []string
+	ep.rec = make([][]float32, len(h.Signals))
+	switch _, spr := h.RecoveredRate(); {
+	case best == 0 && spr > 0:
+		// stored as bipolar derivations: the electrodes recovered from them, in µV
+		best = spr
+		for _, i := range h.TermSignals() {
+			ep.rec[i] = make([]float32, best)
+		}
+		for k, e := range h.Recovered {
+			ep.sigs = append(ep.sigs, -1-k)
+			ep.scale = append(ep.scale, 1)
+			labels = append(labels, e.Name)
+		}
+		ep.recovered = make([]float32, best)
+	case best == 0:
 		r.Close()
 		return nil, fmt.Errorf("no EEG channels")
 	}
-	var labels []string
-	ep.rec = make([][]float32, len(h.Signals))
 	for i := range h.Signals {
 		if s := &h.Signals[i]; s.Kind == edf.EEG && s.SamplesPerRecord == best {
 			ep.sigs = append(ep.sigs, i)
@@ -192,7 +206,12 @@ func (ep *epocher) epoch(e *EventRow, windowS float64) ([]EpochRow, bool, error)
 		m := min(ep.spr-k, hi-g)
 		for c, s := range ep.sigs {
 			dst := ep.in[c][g-g0 : g-g0+m]
-			copy(dst, ep.rec[s][k:k+m])
+			if s < 0 {
+				ep.r.Header().RecoverRecord(-1-s, ep.rec, ep.recovered)
+				copy(dst, ep.recovered[k:k+m])
+			} else {
+				copy(dst, ep.rec[s][k:k+m])
+			}
 			if f := ep.scale[c]; f != 1 {
 				for t := range dst {
 					dst[t] *= f

@@ -116,6 +116,48 @@ func TestEpochsCommonAverage(t *testing.T) {
 	}
 }
 
+// TestEpochsBipolarRecording checks epochs cut from recordings stored only as
+// a longitudinal bipolar chain over the 19 scalp electrodes (the double banana
+// linked by C3-Cz and Cz-C4): the electrodes recovered from the derivations
+// (edf.Header.Recovered) are the potentials less their mean, so the common
+// average montage gives each electrode minus the mean of all (Offner 1950), as
+// from the referential recording.
+func TestEpochsBipolarRecording(t *testing.T) {
+	var chain []string
+	for _, p := range [][2]string{
+		{"Fp1", "F7"}, {"F7", "T7"}, {"T7", "P7"}, {"P7", "O1"}, {"Fp1", "F3"}, {"F3", "C3"}, {"C3", "P3"}, {"P3", "O1"},
+		{"Fp2", "F8"}, {"F8", "T8"}, {"T8", "P8"}, {"P8", "O2"}, {"Fp2", "F4"}, {"F4", "C4"}, {"C4", "P4"}, {"P4", "O2"},
+		{"Fz", "Cz"}, {"Cz", "Pz"}, {"C3", "Cz"}, {"Cz", "C4"},
+	} {
+		chain = append(chain, p[0]+"-"+p[1])
+	}
+	f := newFixtureOf(t, 3, chain)
+	f.opts.Draw = f.opts.Draw[:3]
+	f.opts.EpochWindowS = 2
+	dir, res := runExport(t, f.opts, "parquet", true)
+	rows := readParquet[EpochRow](t, filepath.Join(dir, EpochsFile))
+	if len(rows) != 3*19 || res.Epochs != len(rows) {
+		t.Fatalf("%d rows (res %d), want 57", len(rows), res.Epochs)
+	}
+	var mean float64
+	for _, e := range tenTwenty[:19] {
+		mean += float64((slices.Index(tenTwenty, e) + 1) * 100)
+	}
+	mean /= 19
+	for _, r := range rows {
+		c := slices.Index(tenTwenty, strings.TrimSuffix(r.Channel, "-Avg"))
+		if c < 0 || c >= 19 {
+			t.Fatalf("channel %q", r.Channel)
+		}
+		want := float64((c+1)*100) - mean // the g % 97 part is common to every electrode and cancels
+		for i, v := range r.Samples {
+			if !math.IsNaN(float64(v)) && math.Abs(float64(v)-want) > 0.01 {
+				t.Fatalf("%s %s sample %d = %v, want %v", r.EventID, r.Channel, i, v, want)
+			}
+		}
+	}
+}
+
 // TestEpochsDiscontinuous: in an EDF+D file a window stays inside the segment holding
 // its event (Kemp & Olivan 2003, section 2.2.4: records of a segment follow without a
 // gap). Segments are records 0–9 at 0–10 s and records 10–19 at 20–30 s; an event at

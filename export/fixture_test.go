@@ -6,6 +6,8 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"slices"
+	"strings"
 	"testing"
 	"time"
 
@@ -28,7 +30,9 @@ const fixtureRate = 256
 func sampleValue(c int, g int64) float32 { return float32((c+1)*100 + int(g%97)) }
 
 // writeFixtureEDF writes an EDF+C file of `seconds` one-second records with the EEG
-// channels chans and an ECG channel, the patient field set to patient.
+// channels chans and an ECG channel, the patient field set to patient. A channel
+// "A-B" is the derivation of tenTwenty electrodes A and B, sampleValue(A) −
+// sampleValue(B).
 func writeFixtureEDF(t testing.TB, path, patient string, seconds int, start time.Time, chans []string) {
 	t.Helper()
 	if err := os.MkdirAll(filepath.Dir(path), 0o755); err != nil {
@@ -42,8 +46,8 @@ func writeFixtureEDF(t testing.TB, path, patient string, seconds int, start time
 	var sigs []edf.Signal
 	for _, n := range append(append([]string{}, chans...), "ECG") {
 		label := "EEG " + n + "-REF"
-		if n == "ECG" {
-			label = "ECG"
+		if n == "ECG" || strings.Contains(n, "-") {
+			label = n
 		}
 		sigs = append(sigs, edf.Signal{Label: label, PhysDim: "uV", PhysMin: -32768, PhysMax: 32767,
 			DigMin: -32768, DigMax: 32767, SamplesPerRecord: fixtureRate})
@@ -61,7 +65,12 @@ func writeFixtureEDF(t testing.TB, path, patient string, seconds int, start time
 	for r := range seconds {
 		for c := range rec {
 			for k := range rec[c] {
-				rec[c][k] = sampleValue(c, int64(r*fixtureRate+k))
+				g := int64(r*fixtureRate + k)
+				if a, b, ok := strings.Cut(sigs[c].Label, "-"); ok && !strings.HasPrefix(a, "EEG ") {
+					rec[c][k] = sampleValue(slices.Index(tenTwenty, a), g) - sampleValue(slices.Index(tenTwenty, b), g)
+				} else {
+					rec[c][k] = sampleValue(c, g)
+				}
 			}
 		}
 		if err := w.WriteRecord(rec); err != nil {
@@ -90,10 +99,17 @@ type fixture struct {
 // seeded features, a draw with a control, three raters' answers and their consensus.
 func newFixture(t testing.TB, nCand int) *fixture {
 	t.Helper()
+	return newFixtureOf(t, nCand, tenTwenty)
+}
+
+// newFixtureOf is newFixture with recordings of the EEG channels chans
+// (see writeFixtureEDF).
+func newFixtureOf(t testing.TB, nCand int, chans []string) *fixture {
+	t.Helper()
 	root := filepath.Join(t.TempDir(), "patients-archive")
 	starts := []time.Time{time.Date(2019, 6, 15, 14, 23, 45, 0, time.UTC), time.Date(2020, 11, 2, 8, 5, 0, 0, time.UTC)}
 	for i, n := range fileNames {
-		writeFixtureEDF(t, filepath.Join(root, "ward", n), patientNames[i], 60, starts[i], tenTwenty)
+		writeFixtureEDF(t, filepath.Join(root, "ward", n), patientNames[i], 60, starts[i], chans)
 	}
 	idx, err := archive.Run(context.Background(), archive.Options{Roots: []string{root},
 		Secret: []byte("0123456789abcdef0123456789abcdef"), IndexDir: t.TempDir()})

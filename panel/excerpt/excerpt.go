@@ -200,42 +200,56 @@ func commonElectrodes(rows []draw.Row, recs map[string]archive.Recording) ([]str
 	return out, warn
 }
 
+// edfElectrode finds electrode e in the header: a signal of its own (its
+// index, rate and µV factor) or, in a recording stored as bipolar
+// derivations, a recovered electrode (−1−k, its rate, 1: ReadRecovered
+// reads µV).
+func edfElectrode(h *edf.Header, e string) (sig int, hz, microvolts float64, ok bool) {
+	for i, s := range h.Signals {
+		if s.Kind == edf.EEG && s.Name == e {
+			k, _ := s.Microvolts()
+			return i, s.SampleRate(h.RecordDuration), k, true
+		}
+	}
+	for j, r := range h.Recovered {
+		if r.Name == e {
+			hz, _ := h.RecoveredRate()
+			return -1 - j, hz, 1, true
+		}
+	}
+	return 0, 0, 0, false
+}
+
 // cutter reads windows of one recording.
 type cutter struct {
-	rd      *edf.Reader
-	sig     []int
-	scale   []float32 // µV per physical unit of each signal (edf.Signal.Microvolts)
-	fs      float64
-	factor  int
-	rate    float64
-	mapSOS  signal.SOS // the study's filters, for the voltage map only
-	antiAl  signal.SOS // anti-aliasing low-pass before decimation; nil when factor is 1
-	window  int        // rated samples at the recording's rate
-	context int        // context samples on each side
-	cond    string
+	rd        *edf.Reader
+	sig       []int     // signal index, or −1−k for recovered electrode k (edf.Header.Recovered)
+	scale     []float32 // µV per physical unit of each signal (edf.Signal.Microvolts)
+	perRecord int64     // samples per data record of those signals
+	fs        float64
+	factor    int
+	rate      float64
+	mapSOS    signal.SOS // the study's filters, for the voltage map only
+	antiAl    signal.SOS // anti-aliasing low-pass before decimation; nil when factor is 1
+	window    int        // rated samples at the recording's rate
+	context   int        // context samples on each side
+	cond      string
 }
 
 func newCutter(rd *edf.Reader, electrodes []string, o Options) (*cutter, error) {
 	h := rd.Header()
 	c := &cutter{rd: rd}
 	for _, e := range electrodes {
-		idx := -1
-		for i, s := range h.Signals {
-			if s.Kind == edf.EEG && s.Name == e {
-				idx = i
-				break
-			}
-		}
-		if idx < 0 {
+		idx, fs, k, ok := edfElectrode(h, e)
+		if !ok {
 			return nil, fmt.Errorf("electrode %s not found", e)
 		}
-		fs := h.Signals[idx].SampleRate(h.RecordDuration)
 		if c.fs != 0 && fs != c.fs {
 			return nil, fmt.Errorf("electrodes sampled at different rates (%g and %g Hz)", c.fs, fs)
 		}
 		c.fs = fs
+		c.perRecord = int64(math.Round(fs * h.RecordDuration))
 		c.sig = append(c.sig, idx)
-		k, _ := h.Signals[idx].Microvolts()
 		c.scale = append(c.scale, float32(k))
 	}
 	c.factor = max(1, int(math.Ceil(c.fs/o.MaxRate-1e-9)))
@@ -279,7 +293,7 @@ func newCutter(rd *edf.Reader, electrodes []string, o Options) (*cutter, error) 
 // the recording's start or after its end are padded flat, not shifted, so
 // the event stays at the same place on every item.
 func (c *cutter) item(onset float64) (packet.Item, []float64, error) {
-	n := c.rd.NumRecords() * int64(c.rd.Header().Signals[c.sig[0]].SamplesPerRecord)
+	n := c.rd.NumRecords() * c.perRecord
 	from := int64(math.Round(onset*c.fs)) - int64(c.window/2) - int64(c.context)
 	total := c.window + 2*c.context
 	out := packet.Item{Rate: c.rate, Conditioning: c.cond,
@@ -293,7 +307,11 @@ func (c *cutter) item(onset float64) (packet.Item, []float64, error) {
 		lo := max(from, 0)
 		hi := min(from+int64(total), n)
 		if hi > lo {
-			if _, err := c.rd.ReadSignal(s, lo, buf[lo-from:hi-from]); err != nil {
+			read := c.rd.ReadSignal
+			if s < 0 {
+				read = func(_ int, start int64, dst []float32) (int, error) { return c.rd.ReadRecovered(-1-s, start, dst) }
+			}
+			if _, err := read(s, lo, buf[lo-from:hi-from]); err != nil {
 				return out, nil, err
 			}
 			if k := c.scale[si]; k != 1 {

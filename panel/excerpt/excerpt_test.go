@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -208,5 +209,80 @@ func TestCutReadsTheFileUnit(t *testing.T) {
 	}
 	if peak < 30 || peak > 50 {
 		t.Errorf("largest value %g µV, want about 40", peak)
+	}
+}
+
+// TestCutBipolarRecording checks that a recording stored only as a bipolar
+// chain is cut from the electrodes recovered from its derivations
+// (edf.Header.Recovered): each is the electrode's potential less the mean
+// over the chain's electrodes, the common average (common practice), so
+// it matches the referential recording of the same potentials, less that
+// mean, to the files' quantisation.
+func TestCutBipolarRecording(t *testing.T) {
+	dir := t.TempDir()
+	electrodes := []string{"C3", "F3", "Fp1", "O1", "P3"} // sorted, as recovered
+	chain := [][2]string{{"Fp1", "F3"}, {"F3", "C3"}, {"C3", "P3"}, {"P3", "O1"}}
+	const rate, seconds = 256, 30
+	v := func(c int, tt float64) float64 {
+		return 40*math.Sin(2*math.Pi*(9+float64(c))*tt) + 100*math.Sin(2*math.Pi*3*tt) // the second term: a reference's own activity
+	}
+	write := func(name string, labels []string, value func(j int, tt float64) float64) {
+		sigs := make([]edf.Signal, len(labels))
+		for i, l := range labels {
+			sigs[i] = edf.Signal{Label: l, PhysDim: "uV", PhysMin: -500, PhysMax: 500, DigMin: -32768, DigMax: 32767, SamplesPerRecord: rate}
+		}
+		f, err := os.Create(filepath.Join(dir, name))
+		if err != nil {
+			t.Fatal(err)
+		}
+		w, err := edf.NewWriter(f, edf.WriterHeader{Format: edf.EDFPlusC, Start: time.Date(2022, 3, 2, 9, 0, 0, 0, time.UTC), RecordDuration: 1, NumRecords: seconds, Signals: sigs})
+		if err != nil {
+			t.Fatal(err)
+		}
+		rec := make([][]float32, len(labels))
+		for r := range seconds {
+			for j := range labels {
+				rec[j] = make([]float32, rate)
+				for i := range rate {
+					rec[j][i] = float32(value(j, float64(r)+float64(i)/rate))
+				}
+			}
+			if err := w.WriteRecord(rec); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if err := w.Close(); err != nil {
+			t.Fatal(err)
+		}
+		f.Close()
+	}
+	write("ref.edf", electrodes, func(j int, tt float64) float64 { return v(j, tt) })
+	var labels []string
+	for _, p := range chain {
+		labels = append(labels, "EEG "+p[0]+"-"+p[1])
+	}
+	write("bip.edf", labels, func(j int, tt float64) float64 {
+		return v(slices.Index(electrodes, chain[j][0]), tt) - v(slices.Index(electrodes, chain[j][1]), tt)
+	})
+	recs := []archive.Recording{{RecordingID: "ref", Path: "ref.edf", EEGChannels: electrodes}, {RecordingID: "bip", Path: "bip.edf", EEGChannels: electrodes}}
+	rows := []draw.Row{{EventID: "a", RecordingID: "ref", OnsetS: 15}, {EventID: "b", RecordingID: "bip", OnsetS: 15}}
+	items, _, err := Cut(context.Background(), Options{Rows: rows, Recordings: recs, Roots: []string{dir}, Bandpass: [2]float64{0.5, 70}, NotchHz: 50})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ref, bip := items[0].Samples, items[1].Samples
+	if len(bip) != len(electrodes) {
+		t.Fatalf("%d channels from the bipolar file, want %d", len(bip), len(electrodes))
+	}
+	for i := range ref[0] {
+		var mean float64
+		for c := range ref {
+			mean += float64(ref[c][i]) / float64(len(ref))
+		}
+		for c := range ref {
+			if d := math.Abs(float64(ref[c][i]) - mean - float64(bip[c][i])); d > 0.1 {
+				t.Fatalf("%s sample %d: %g µV from the bipolar file, %g less the mean from the referential one", electrodes[c], i, bip[c][i], float64(ref[c][i])-mean)
+			}
+		}
 	}
 }

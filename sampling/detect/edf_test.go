@@ -210,3 +210,111 @@ func TestCommonReferenceLabels(t *testing.T) {
 		t.Errorf("against Cz: %d events, %d of the %d of the plain file at the same time and channel", len(rows[1]), same, len(rows[0]))
 	}
 }
+
+// TestBipolarRecording checks that a recording stored only as a
+// longitudinal bipolar chain (the double banana, linked across the midline
+// by C3-Cz and Cz-C4) gives the events of the same recording stored
+// referentially: the potentials recovered from the derivations are the
+// common average the finder uses (edf.TestRecoverElectrodes). Before the
+// recovery such a recording was skipped as having no scalp EEG.
+func TestBipolarRecording(t *testing.T) {
+	g := generated(t, 1, 10)
+	in := inputOf(g)
+	dir := t.TempDir()
+	n := int(g.Rate) * 120
+	src := in.Src.(memSource)
+	at := func(e string) []float32 {
+		c := slices.Index(in.Labels, e)
+		if c < 0 {
+			t.Fatalf("no %s", e)
+		}
+		return src[c][:n]
+	}
+	var plain, chain []string
+	var data, derived [][]float32
+	for c, x := range src {
+		plain = append(plain, "EEG "+in.Labels[c]+"-REF")
+		data = append(data, x[:n])
+	}
+	pairs := [][2]string{
+		{"Fp1", "F7"}, {"F7", "T7"}, {"T7", "P7"}, {"P7", "O1"},
+		{"Fp1", "F3"}, {"F3", "C3"}, {"C3", "P3"}, {"P3", "O1"},
+		{"Fp2", "F8"}, {"F8", "T8"}, {"T8", "P8"}, {"P8", "O2"},
+		{"Fp2", "F4"}, {"F4", "C4"}, {"C4", "P4"}, {"P4", "O2"},
+		{"Fz", "Cz"}, {"Cz", "Pz"}, {"C3", "Cz"}, {"Cz", "C4"},
+	}
+	for _, p := range pairs {
+		a, b := at(p[0]), at(p[1])
+		d := make([]float32, n)
+		for i := range d {
+			d[i] = a[i] - b[i]
+		}
+		chain = append(chain, "EEG "+p[0]+"-"+p[1])
+		derived = append(derived, d)
+	}
+	if len(plain) != 19 {
+		t.Fatalf("the generator's montage has %d electrodes, the chain covers 19", len(plain))
+	}
+	var rows [2][]candidate.Row
+	for k, f := range []struct {
+		labels []string
+		data   [][]float32
+	}{{plain, data}, {chain, derived}} {
+		r, err := edf.Open(writeEDF(t, dir, fmt.Sprintf("r%d.edf", k), f.labels, f.data, int(g.Rate), nil))
+		if err != nil {
+			t.Fatal(err)
+		}
+		got, _, err := detectFileRows(mustSettings(t), r, "r")
+		r.Close()
+		if err != nil {
+			t.Fatal(err)
+		}
+		rows[k] = got
+	}
+	if len(rows[0]) < 10 {
+		t.Fatalf("only %d events", len(rows[0]))
+	}
+	same := 0
+	for _, a := range rows[0] {
+		for _, b := range rows[1] {
+			if math.Abs(a.OnsetS-b.OnsetS) < 0.005 && a.PeakChannel == b.PeakChannel {
+				same++
+				break
+			}
+		}
+	}
+	t.Logf("referential %d events, bipolar %d, %d at the same time and channel", len(rows[0]), len(rows[1]), same)
+	// the files differ by the 0.1 µV quantisation of derivations and potentials
+	if len(rows[1]) < len(rows[0])*9/10 || same < len(rows[0])*9/10 {
+		t.Errorf("bipolar chain: %d events, %d of the %d of the referential file at the same time and channel", len(rows[1]), same, len(rows[0]))
+	}
+	for _, r := range rows[1] {
+		if math.IsNaN(r.C6DipoleGOF) {
+			t.Fatalf("linked chain: c6 not measured at %.3f s", r.OnsetS)
+		}
+	}
+
+	// Without C3-Cz and Cz-C4 the two sides are unlinked groups, each
+	// relative to its own mean, and the midline (three electrodes) is left
+	// out: events are still found, criterion 6 is not measured.
+	r, err := edf.Open(writeEDF(t, dir, "unlinked.edf", chain[:18], derived[:18], int(g.Rate), nil))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, warns, err := detectFileRows(mustSettings(t), r, "r")
+	r.Close()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(strings.Join(warns, "\n"), "c6 not measured") {
+		t.Errorf("unlinked groups: no warning that c6 is not measured: %q", warns)
+	}
+	if len(got) < len(rows[0])/2 {
+		t.Errorf("unlinked groups: %d events against %d", len(got), len(rows[0]))
+	}
+	for _, r := range got {
+		if !math.IsNaN(r.C6DipoleGOF) {
+			t.Fatalf("unlinked groups: c6 %.3f at %.3f s, want NaN", r.C6DipoleGOF, r.OnsetS)
+		}
+	}
+}

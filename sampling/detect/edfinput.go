@@ -15,13 +15,19 @@ import (
 // zero, which the caller never asks for within a segment.
 type edfSource struct {
 	r     *edf.Reader
-	sigs  []int
+	sigs  []int     // signal index, or −1−k for recovered electrode k (edf.Header.Recovered)
 	scale []float32 // µV per physical unit of each signal (edf.Signal.Microvolts)
 	first int64
 }
 
 func (s *edfSource) ReadAt(ch int, start int64, dst []float32) error {
-	n, err := s.r.ReadSignal(s.sigs[ch], s.first+start, dst)
+	var n int
+	var err error
+	if k := s.sigs[ch]; k < 0 {
+		n, err = s.r.ReadRecovered(-1-k, s.first+start, dst)
+	} else {
+		n, err = s.r.ReadSignal(k, s.first+start, dst)
+	}
 	if err == io.EOF && n == len(dst) {
 		err = nil
 	}
@@ -46,6 +52,9 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 		if s.Kind == edf.EEG && montage.IsElectrode(s.Name) {
 			count[s.SampleRate(h.RecordDuration)]++
 		}
+	}
+	if len(count) == 0 && len(h.Recovered) > 0 {
+		return recoveredInputs(r, recID, subject)
 	}
 	if len(count) == 0 {
 		return nil, []string{"no scalp EEG channels; recording skipped"}, nil
@@ -88,6 +97,44 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 	if len(labels) == 0 {
 		return nil, append(warns, "no usable scalp EEG channels; recording skipped"), nil
 	}
+	spr := int64(h.Signals[sigs[0]].SamplesPerRecord)
+	return segmentInputs(r, recID, subject, labels, ranges, rate, spr, &edfSource{r: r, sigs: sigs, scale: scale}, warns)
+}
+
+// recoveredInputs is edfInputs for a recording stored as bipolar
+// derivations, over the electrodes the edf package recovered from them
+// (edf.Header.Recovered); its warning is the header's. A recovered
+// electrode has no physical range of its own: its range is the largest
+// the derivations' ranges allow, so it never reads as saturated.
+func recoveredInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) {
+	h := r.Header()
+	rate, spr := h.RecoveredRate()
+	var labels []string
+	var sigs []int
+	var scale []float32
+	var ranges [][2]float64
+	for k, e := range h.Recovered {
+		var span float64
+		for _, t := range e.Terms {
+			s := h.Signals[t.Signal]
+			span += math.Abs(t.Weight) * max(math.Abs(s.PhysMin), math.Abs(s.PhysMax))
+		}
+		labels = append(labels, e.Name)
+		sigs = append(sigs, -1-k)
+		scale = append(scale, 1)
+		ranges = append(ranges, [2]float64{-span, span})
+	}
+	warn := fmt.Sprintf("stored as bipolar derivations: read from the %d electrodes recovered from them (%s, …), each less the mean of its linked group", len(labels), strings.Join(labels[:min(3, len(labels))], ", "))
+	ins, warns, err := segmentInputs(r, recID, subject, labels, ranges, rate, int64(spr), &edfSource{r: r, sigs: sigs, scale: scale}, []string{warn})
+	for i := range ins {
+		ins[i].SplitMap = h.Recovered[len(h.Recovered)-1].Group > 0
+	}
+	return ins, warns, err
+}
+
+// segmentInputs makes one Input per contiguous segment of the recording
+// over the channels src serves.
+func segmentInputs(r *edf.Reader, recID, subject string, labels []string, ranges [][2]float64, rate float64, spr int64, src *edfSource, warns []string) ([]Input, []string, error) {
 	segs, err := r.Segments()
 	if err != nil {
 		return nil, warns, err
@@ -96,10 +143,6 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 	if err != nil {
 		return nil, warns, fmt.Errorf("annotations: %w", err)
 	}
-	var spr int64
-	for _, i := range sigs[:1] {
-		spr = int64(h.Signals[i].SamplesPerRecord)
-	}
 	var ins []Input
 	for _, sg := range segs {
 		first := sg.FirstRecord * spr
@@ -107,7 +150,7 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 			RecordingID: recID, SubjectKey: subject,
 			Labels: labels, PhysRange: ranges, Rate: rate,
 			Len: sg.Records * spr, StartS: sg.Start, FirstSample: first,
-			Src: &edfSource{r: r, sigs: sigs, scale: scale, first: first}, States: states,
+			Src: &edfSource{r: r, sigs: src.sigs, scale: src.scale, first: first}, States: states,
 		})
 	}
 	return ins, warns, nil

@@ -132,7 +132,9 @@ func (e *engine) montagesFor(bad []bool) *montages {
 			pos = append(pos, p)
 		}
 	}
-	if f, err := headmodel.NewFitter(pos, headmodel.DefaultHead(), headmodel.FitOptions{MaxEccentricity: fitEccentricity}); err == nil {
+	if e.in.SplitMap {
+		e.warn("potentials relative to more than one mean: dipole fit unavailable (c6 not measured)")
+	} else if f, err := headmodel.NewFitter(pos, headmodel.DefaultHead(), headmodel.FitOptions{MaxEccentricity: fitEccentricity}); err == nil {
 		m.fitter = f
 	} else {
 		e.warn("dipole fit unavailable (c6 not measured): %v", err)

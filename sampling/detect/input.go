@@ -22,4 +22,9 @@ type Input struct {
 	// seconds from the recording start (nil when it gives none): each row's
 	// State, and the stretch whose spectrum criterion 2 reads.
 	States []StateSpan
+	// SplitMap says the channels' potentials are relative to more than one
+	// mean (electrodes recovered from bipolar derivations in groups no
+	// derivation links, edf.Recovered): a voltage map across the groups
+	// is not a field, so criterion 6 is not measured.
+	SplitMap bool
 }

@@ -21,7 +21,8 @@ type Header struct {
 	NumRecords     int64   // number of data records
 	RecordDuration float64 // duration of a data record, seconds
 	Signals        []Signal
-	Warnings       []string // deviations tolerated while parsing
+	Recovered      []Recovered // electrodes recovered from bipolar derivations when no signal is one (recoverElectrodes)
+	Warnings       []string    // deviations tolerated while parsing
 }
 
 // Signal is one signal's header fields (Kemp et al. 1992, header record).
@@ -314,6 +315,7 @@ func ReadHeader(r io.Reader, name string) (*Header, error) {
 		return nil, err
 	}
 	commonReference(h)
+	recoverElectrodes(h)
 	if p.nulPad {
 		h.Warnings = append(h.Warnings, "header fields padded with NUL bytes instead of spaces; read as spaces")
 	}

@@ -41,6 +41,7 @@ func Inspect(r io.ReaderAt, size int64, name string) (*Summary, error) {
 
 	var ignored, unknown []string
 	seen := map[string]bool{}
+	terms := h.TermSignals()
 	for i := range h.Signals {
 		sg := &h.Signals[i]
 		switch sg.Kind {
@@ -55,10 +56,18 @@ func Inspect(r io.ReaderAt, size int64, name string) (*Summary, error) {
 			}
 		case AnnotationSignal:
 		case Other:
-			unknown = append(unknown, sg.Label)
+			if !slices.Contains(terms, i) {
+				unknown = append(unknown, sg.Label)
+			}
 		default:
 			ignored = append(ignored, sg.Label+" ("+sg.Kind.String()+")")
 		}
+	}
+	for _, e := range h.Recovered {
+		s.EEG = append(s.EEG, e.Name)
+	}
+	if rate, _ := h.RecoveredRate(); rate > 0 && !slices.Contains(s.EEGRates, rate) {
+		s.EEGRates = append(s.EEGRates, rate)
 	}
 	slices.Sort(s.EEGRates)
 	if len(ignored) > 0 {

@@ -23,6 +23,7 @@ type Reader struct {
 	annot     []int // annotation signal indices
 	buf       []byte
 	tol       float64 // onsets closer than this are the same instant
+	derived   derivedCache
 }
 
 // NewReader reads the header of the size-byte file r and checks the file
