@@ -34,7 +34,8 @@ type montages struct {
 // concurrent use.
 type engine struct {
 	s               *settings
-	in              *Input
+	in              *Input // the input, or its decimated view (newEngine)
+	step            int    // input samples per sample of in (decimation)
 	zp              *signal.ZeroPhase
 	margin          int
 	rate            float64
@@ -432,7 +433,7 @@ func (e *engine) row(w window, c cluster) candidate.Row {
 	}
 	slices.Sort(chans)
 	chans = slices.Compact(chans)
-	sample := in.FirstSample + w.base + int64(ph.peak)
+	sample := in.FirstSample + (w.base+int64(ph.peak))*int64(e.step)
 	lobe, side := montage.Region(elec)
 	row := candidate.Row{
 		EventID:            candidate.EventID(in.RecordingID, e.source, sample),
@@ -484,6 +485,17 @@ func Detect(ctx context.Context, in Input, o Options) ([]candidate.Row, []string
 	return rows, e.warnings, err
 }
 
+// newEngine returns an engine over in, or over its decimated view when in
+// is sampled well above designRate (decimation; no warning: it is the
+// normal reading of such a recording).
 func newEngine(s *settings, in *Input) *engine {
-	return &engine{s: s, in: in, source: "builtin", mons: map[string]*montages{}}
+	e := &engine{s: s, in: in, step: 1, source: "builtin", mons: map[string]*montages{}}
+	if m := decimation(in.Rate); m > 1 {
+		if d, err := decimated(*in, m); err == nil {
+			e.in, e.step = &d, m
+		} else {
+			e.warn("sampled at %g Hz and not decimated to about %g Hz, the rate the features were designed at: %v", in.Rate, designRate, err)
+		}
+	}
+	return e
 }

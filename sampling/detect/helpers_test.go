@@ -51,16 +51,22 @@ var (
 	genOnce sync.Map
 )
 
-// generated returns a cached synthetic recording for a seed.
+// generated returns a cached synthetic recording for a seed, at 256 Hz.
 func generated(t testing.TB, seed uint64, minutes float64) *synth.Recording {
 	t.Helper()
-	key := [2]float64{float64(seed), minutes}
+	return generatedAt(t, seed, minutes, 256)
+}
+
+// generatedAt is generated at another sampling rate.
+func generatedAt(t testing.TB, seed uint64, minutes, rate float64) *synth.Recording {
+	t.Helper()
+	key := [3]float64{float64(seed), minutes, rate}
 	if r, ok := genOnce.Load(key); ok {
 		return r.(*synth.Recording)
 	}
 	rec, err := synth.Generate(synth.Config{
 		Seed: seed, Duration: minutes * 60, Forward: headForward,
-		IEDRate: 6, LookalikeRate: 6,
+		IEDRate: 6, LookalikeRate: 6, Rate: rate,
 	})
 	if err != nil {
 		t.Fatal(err)

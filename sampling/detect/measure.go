@@ -57,7 +57,7 @@ func MeasureAt(rec *edf.Reader, onsets []float64, opts Options) ([]candidate.Row
 		if engines[k] == nil {
 			engines[k] = newEngine(s, &ins[k])
 			engines[k].source = source
-			if err := engines[k].setRate(ins[k].Rate); err != nil {
+			if err := engines[k].setRate(engines[k].in.Rate); err != nil {
 				return nil, warns, err
 			}
 		}

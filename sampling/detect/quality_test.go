@@ -3,8 +3,12 @@ package detect
 import (
 	"context"
 	"fmt"
+	"github.com/quorate-eeg/quorate/sampling/signal"
+	"gonum.org/v1/gonum/dsp/fourier"
 	"math"
+	"math/cmplx"
 	"os"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -198,11 +202,28 @@ func TestCandidateQuality(t *testing.T) {
 	if v, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_KEEP"), 64); err == nil {
 		complexKeepFrac = v
 	}
+	rate := 256.0
+	if v, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_RATE"), 64); err == nil {
+		rate = v
+	}
 	var a assessor
 	for _, f := range strings.Fields(v) {
 		seed, _ := strconv.ParseUint(f, 10, 64)
-		g := generated(t, seed, 10)
-		rows, _, err := Detect(context.Background(), inputOf(g), Options{})
+		g := generatedAt(t, seed, 10, rate)
+		in := inputOf(g)
+		if k, err := strconv.Atoi(os.Getenv("QUORATE_DIAG_UPSAMPLE")); err == nil && k > 1 {
+			in = upsampled(in, k)
+		}
+		if d, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_SHIFT"), 64); err == nil {
+			in = shifted(in, d)
+		}
+		if r, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_RESAMPLE"), 64); err == nil {
+			in = resampled(in, int(math.Round(float64(in.Len)*r/in.Rate)))
+		}
+		if k, err := strconv.Atoi(os.Getenv("QUORATE_DIAG_DECIMATE")); err == nil && k > 1 {
+			in = decimatedIn(t, in, k)
+		}
+		rows, _, err := Detect(context.Background(), in, Options{})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -270,4 +291,146 @@ func TestComplexDump(t *testing.T) {
 			fmt.Println(line)
 		}
 	}
+}
+
+// upsampled is in with every channel interpolated to k times its rate
+// (resampled).
+func upsampled(in Input, k int) Input { return resampled(in, len(in.Src.(memSource)[0])*k) }
+
+// resampled is in with every channel resampled to m samples by zero-padding
+// or truncating its discrete Fourier transform (band-limited
+// interpolation): the same waveforms at another rate, for checking that the
+// finder and the features do not depend on the rate. Truncation drops the
+// band above the new Nyquist frequency.
+func resampled(in Input, m int) Input {
+	src := in.Src.(memSource)
+	n := len(src[0])
+	fwd := fourier.NewFFT(n)
+	inv := fourier.NewFFT(m)
+	out := make(memSource, len(src))
+	x := make([]float64, n)
+	h := min(n, m) / 2 // bins kept below the lower Nyquist frequency
+	for c, ch := range src {
+		for i, v := range ch {
+			x[i] = float64(v)
+		}
+		co := fwd.Coefficients(nil, x)
+		big := make([]complex128, m/2+1)
+		copy(big, co[:h])
+		big[h] = co[h] / 2 // the lower Nyquist bin, split between ±f
+		y := inv.Sequence(nil, big)
+		out[c] = make([]float32, m)
+		for i, v := range y {
+			out[c][i] = float32(v / float64(n))
+		}
+	}
+	in.Src, in.Rate, in.Len = out, in.Rate*float64(m)/float64(n), int64(m)
+	return in
+}
+
+// TestRateCompare is a diagnostic, run only with QUORATE_DIAG_RATECMP set
+// to seeds: each recording detected as generated (256 Hz) and upsampled
+// k-fold (QUORATE_DIAG_UPSAMPLE, default 2); rows matched within 5 ms, and
+// per feature the median and 10th–90th percentiles of the difference.
+func TestRateCompare(t *testing.T) {
+	v := os.Getenv("QUORATE_DIAG_RATECMP")
+	if v == "" {
+		t.Skip("diagnostic")
+	}
+	k := 2
+	if n, err := strconv.Atoi(os.Getenv("QUORATE_DIAG_UPSAMPLE")); err == nil && n > 1 {
+		k = n
+	}
+	names := []string{"c1dur", "c1", "c2", "c3", "c4", "c5", "c6", "amp", "score"}
+	diffs := make([][]float64, len(names))
+	nA, nB, both := 0, 0, 0
+	for _, f := range strings.Fields(v) {
+		seed, _ := strconv.ParseUint(f, 10, 64)
+		in := inputOf(generated(t, seed, 10))
+		a, _, err := Detect(context.Background(), in, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, _, err := Detect(context.Background(), upsampled(in, k), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		nA, nB = nA+len(a), nB+len(b)
+		for _, r := range a {
+			for _, s := range b {
+				if math.Abs(r.OnsetS-s.OnsetS) > 0.005 || r.PeakChannel != s.PeakChannel {
+					continue
+				}
+				both++
+				x := []float64{r.C1DurationMS, r.C1Sharpness, r.C2DurationLogRatio, r.C3Asymmetry, r.C4SlowWaveRatio, r.C5Disruption, r.C6DipoleGOF, r.AmplitudeUV, r.Score}
+				y := []float64{s.C1DurationMS, s.C1Sharpness, s.C2DurationLogRatio, s.C3Asymmetry, s.C4SlowWaveRatio, s.C5Disruption, s.C6DipoleGOF, s.AmplitudeUV, s.Score}
+				for i := range x {
+					if !math.IsNaN(x[i]) && !math.IsNaN(y[i]) {
+						diffs[i] = append(diffs[i], y[i]-x[i])
+					}
+				}
+				break
+			}
+		}
+	}
+	t.Logf("rows: %d at the generated rate, %d upsampled %d-fold, %d matched (same channel, 5 ms)", nA, nB, k, both)
+	for i, d := range diffs {
+		slices.Sort(d)
+		if len(d) == 0 {
+			continue
+		}
+		q := func(p float64) float64 { return d[int(p*float64(len(d)-1))] }
+		t.Logf("%-6s upsampled − generated: median %+.3f, 10th %+.3f, 90th %+.3f", names[i], q(0.5), q(0.1), q(0.9))
+	}
+}
+
+// decimatedIn is in low-passed (Butterworth order 8, 0.4 of the new rate,
+// zero phase) and decimated k-fold, whole.
+func decimatedIn(t testing.TB, in Input, k int) Input {
+	src := in.Src.(memSource)
+	sos, err := signal.Butterworth(signal.LowPass, 8, in.Rate, 0.4*in.Rate/float64(k))
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := make(memSource, len(src))
+	for c, ch := range src {
+		x := slices.Clone(ch)
+		if err := signal.FiltFilt32(sos, x); err != nil {
+			t.Fatal(err)
+		}
+		out[c] = make([]float32, len(x)/k)
+		for i := range out[c] {
+			out[c][i] = x[i*k]
+		}
+	}
+	in.Src, in.Rate, in.Len = out, in.Rate/float64(k), int64(len(out[0]))
+	return in
+}
+
+// shifted is in with every channel delayed by d samples (a fraction), by a
+// linear phase on its discrete Fourier transform: the same waveforms on a
+// grid moved by d.
+func shifted(in Input, d float64) Input {
+	src := in.Src.(memSource)
+	n := len(src[0])
+	fft := fourier.NewFFT(n)
+	out := make(memSource, len(src))
+	x := make([]float64, n)
+	for c, ch := range src {
+		for i, v := range ch {
+			x[i] = float64(v)
+		}
+		co := fft.Coefficients(nil, x)
+		for k := range co {
+			co[k] *= cmplx.Exp(complex(0, -2*math.Pi*float64(k)*d/float64(n)))
+		}
+		co[n/2] = complex(real(co[n/2]), 0)
+		y := fft.Sequence(nil, co)
+		out[c] = make([]float32, n)
+		for i, v := range y {
+			out[c][i] = float32(v / float64(n))
+		}
+	}
+	in.Src = out
+	return in
 }
