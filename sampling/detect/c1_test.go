@@ -55,9 +55,12 @@ func TestC1Duration(t *testing.T) {
 		if math.Abs(sharp-want) > 1e-6*want {
 			t.Errorf("R=%d F=%d: sharpness %g, want %g", c.r, c.f, sharp, want)
 		}
-		// c3 on a triangle: steepest slopes a/R and a/F, ratio F/R
+		// c3 on a triangle: 20–80 % transition durations 0.6R and 0.6F,
+		// ratio F/R (closed form); the band-limited interpolation between
+		// samples is exact on the straight flanks up to its kernel's
+		// truncation near the corners, 0.03 % here
 		asym, rise, fall := asymmetry(tr, ph, &scratch{})
-		if want := float64(max(c.r, c.f)) / float64(min(c.r, c.f)); math.Abs(asym-want) > 1e-4 {
+		if want := float64(max(c.r, c.f)) / float64(min(c.r, c.f)); math.Abs(asym-want) > 1e-3*want {
 			t.Errorf("R=%d F=%d: asymmetry %g, want %g", c.r, c.f, asym, want)
 		}
 		if rise != float64(c.r) || fall != float64(c.f) {

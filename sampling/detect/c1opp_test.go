@@ -133,7 +133,7 @@ func TestAsymmetryOvershoot(t *testing.T) {
 			t.Fatalf("R=%d F=%d: right base %d, want the overshoot's apex %d", c.r, c.f, ph.right, 1000+c.f+15)
 		}
 		got, _, _ := asymmetry(&trace{x: x, lo: 0, hi: len(x), fs: 1000}, ph, &scratch{})
-		if math.Abs(got-c.want) > 1e-4 {
+		if math.Abs(got-c.want) > 1e-3*c.want { // the interpolation near the corners, as in TestC1Duration
 			t.Errorf("R=%d F=%d: asymmetry %g, want %g", c.r, c.f, got, c.want)
 		}
 	}

@@ -11,9 +11,8 @@ import (
 // designed and validated at (FEATURES.md): the kernel widths, the
 // main-phase walk, the apex curvature and the flank levels all meet a
 // transient on a grid of samples, and the same waveform on a finer grid
-// reads differently (TestRateInvariance: the same recordings interpolated
-// to 512 Hz lost 0.09 of c3's AUC and a tenth of the IEDs meeting four
-// criteria). A recording at a higher rate is therefore low-passed and
+// reads differently (TestRateInvariance; FEATURES.md, "Sampling rate and
+// grid"). A recording at a higher rate is therefore low-passed and
 // decimated by the integer factor that brings it nearest designRate
 // (decimation): 512, 1024 or 2048 Hz to 256 Hz, 500 or 1000 Hz to 250 Hz.
 // Nothing the features read lies above the conditioning filter's 70 Hz.

@@ -57,8 +57,8 @@ func TestRateInvariance(t *testing.T) {
 			slices.Sort(d)
 			// the anti-aliasing low-pass removes the band above 102 Hz
 			// the 256 Hz samples held, which the features hardly read
-			if q := d[len(d)*9/10]; q > 0.02 {
-				t.Errorf("%d Hz: c%d differs from 256 Hz by more than %.3f on a tenth of the matched rows, want ≤ 0.02", 256*k, c+1, q)
+			if q := d[len(d)*9/10]; q > 0.03 {
+				t.Errorf("%d Hz: c%d differs from 256 Hz by more than %.3f on a tenth of the matched rows, want ≤ 0.03", 256*k, c+1, q)
 			}
 		}
 		for _, r := range rows[:3] {

@@ -33,7 +33,7 @@ func TestRunRedoesChangedSettings(t *testing.T) {
 	if res, err := Run(context.Background(), o); err != nil || res.Redone != 2 || res.Processed != 2 || res.Skipped != 0 {
 		t.Fatalf("threshold changed: %+v %v, want both detected again", res, err)
 	}
-	o.Cutoffs = map[string]float64{"c3_asymmetry": 1.7}
+	o.Cutoffs = map[string]float64{"c3_asymmetry": 1.9}
 	if res, err := Run(context.Background(), o); err != nil || res.Redone != 2 {
 		t.Fatalf("cutoff changed: %+v %v, want both detected again", res, err)
 	}

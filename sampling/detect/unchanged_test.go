@@ -17,7 +17,10 @@ import (
 // line as featureLine writes it, made by the code before the speed work
 // on the running median, block scales, filter kernels, channel quality
 // and dipole fit (commit 3f3b9dc). That work changes how the values are
-// computed, not what they are, so they must agree bit for bit.
+// computed, not what they are, so they must agree bit for bit. Rewritten
+// (QUORATE_GOLDEN=write) when c3 became the 20–80 % transition-duration
+// ratio read between samples, which changed c3_asymmetry, auto_count and
+// score and nothing else (FEATURES.md, c3).
 const featuresGolden = "testdata/features_golden.txt"
 
 // featureNames names featureLine's fields after the seed and onset.
