@@ -138,3 +138,38 @@ func TestAsymmetryOvershoot(t *testing.T) {
 		}
 	}
 }
+
+// TestMainPhaseAmplitudeSign checks the main phase's amplitude, the lower of
+// its two half-wave heights, on a triangle riding on an offset: a peak of
+// −100 from bases at +20 and +50 has half-waves of 120 and 150, so 120, and
+// the same wave turned over has the same (polarity does not change a
+// wave's height; common practice). Until 2026-12-05 a negative peak read
+// |x[p]| − min(bases), 80 here: every surface-negative discharge on a
+// non-zero base had a wrong amplitude, pointedness and c1.
+func TestMainPhaseAmplitudeSign(t *testing.T) {
+	x := make([]float32, 400)
+	for i := range x {
+		switch {
+		case i <= 180:
+			x[i] = 20
+		case i >= 230:
+			x[i] = 50
+		case i > 200:
+			x[i] = float32(-100 + 150*float64(i-200)/30)
+		default:
+			x[i] = float32(-100 + 120*float64(200-i)/20)
+		}
+	}
+	neg := make([]float32, len(x))
+	for i, v := range x {
+		neg[i] = -v
+	}
+	a := mainPhase(x, 200, -1, 200, 1)
+	b := mainPhase(neg, 200, +1, 200, 1)
+	if a.left != 180 || a.right != 230 || math.Abs(a.amp-120) > 1e-9 {
+		t.Errorf("negative peak: bases %d, %d, amplitude %g, want 180, 230, 120", a.left, a.right, a.amp)
+	}
+	if a.left != b.left || a.right != b.right || a.amp != b.amp {
+		t.Errorf("turned over: bases %d, %d, amplitude %g; as recorded %d, %d, %g", b.left, b.right, b.amp, a.left, a.right, a.amp)
+	}
+}

@@ -42,14 +42,14 @@ type Options struct {
 // documented in FEATURES.md. The values are common practice or, where no
 // convention exists, a documented first guess that the tuner replaces.
 var DefaultCutoffs = map[string]float64{
-	"c1_duration_ms":        200, // Kane et al. (2017): spike < 70 ms, sharp wave 70–200 ms
-	"c1_sharpness":          0.8, // FEATURES.md (default cutoffs): chosen with the others for auto_count ≥ 4
-	"c2_duration_log_ratio": 0.8, // |ln| ≥ 0.8: beyond ln 2, half or twice the background half-period, with a margin; FEATURES.md
-	"c3_asymmetry":          1.7, // FEATURES.md (default cutoffs; c3)
-	"c4_slow_wave_ratio":    1.0, // background standard deviations; FEATURES.md (c4)
-	"c5_disruption":         0.4, // −½ ln of the post-event ratio of Δx power above the floor (55 % lower); FEATURES.md (c5)
-	"c6_dipole_gof":         0.9, // FEATURES.md (default cutoffs)
-	"c6_field_extent":       2,   // channels at ≥ 50 % of the peak
+	"c1_duration_ms":        200,  // Kane et al. (2017): spike < 70 ms, sharp wave 70–200 ms
+	"c1_sharpness":          1.1,  // FEATURES.md (default cutoffs): chosen with the others for auto_count ≥ 4
+	"c2_duration_log_ratio": 0.8,  // |ln| ≥ 0.8: beyond ln 2, half or twice the background half-period, with a margin; FEATURES.md
+	"c3_asymmetry":          1.7,  // FEATURES.md (default cutoffs; c3)
+	"c4_slow_wave_ratio":    1.0,  // background standard deviations; FEATURES.md (c4)
+	"c5_disruption":         0.35, // −½ ln of the post-event ratio of Δx power above the floor (50 % lower); FEATURES.md (c5, default cutoffs)
+	"c6_dipole_gof":         0.9,  // FEATURES.md (default cutoffs)
+	"c6_field_extent":       2,    // channels at ≥ 50 % of the peak
 }
 
 // settings are Options with defaults filled in and the montage parsed.

@@ -83,7 +83,7 @@ func mainPhase(x []float32, p int, sign float64, maxN int, floor float64) phase 
 		return bi
 	}
 	ph.left, ph.right = walk(-1), walk(+1)
-	ph.amp = top - sign*max(sign*float64(x[ph.left]), sign*float64(x[ph.right]))
+	ph.amp = top - max(sign*float64(x[ph.left]), sign*float64(x[ph.right]))
 	return ph
 }
 

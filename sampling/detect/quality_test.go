@@ -214,6 +214,17 @@ func TestCandidateQuality(t *testing.T) {
 		if k, err := strconv.Atoi(os.Getenv("QUORATE_DIAG_UPSAMPLE")); err == nil && k > 1 {
 			in = upsampled(in, k)
 		}
+		if g, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_GAIN"), 64); err == nil {
+			src := in.Src.(memSource)
+			out := make(memSource, len(src))
+			for c, x := range src {
+				out[c] = make([]float32, len(x))
+				for i, v := range x {
+					out[c][i] = float32(g) * v
+				}
+			}
+			in.Src = out
+		}
 		if d, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_SHIFT"), 64); err == nil {
 			in = shifted(in, d)
 		}

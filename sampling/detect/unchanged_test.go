@@ -20,7 +20,9 @@ import (
 // computed, not what they are, so they must agree bit for bit. Rewritten
 // (QUORATE_GOLDEN=write) when c3 became the 20–80 % transition-duration
 // ratio read between samples, which changed c3_asymmetry, auto_count and
-// score and nothing else (FEATURES.md, c3).
+// score and nothing else (FEATURES.md, c3), and again when the main
+// phase's amplitude of negative peaks was corrected, which changed the
+// candidates (TestMainPhaseAmplitudeSign).
 const featuresGolden = "testdata/features_golden.txt"
 
 // featureNames names featureLine's fields after the seed and onset.
