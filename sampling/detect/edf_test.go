@@ -1,7 +1,6 @@
 package detect
 
 import (
-	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -175,36 +174,16 @@ func TestCommonReferenceLabels(t *testing.T) {
 		refd = append(refd, d)
 	}
 	var rows [2][]candidate.Row
-	for k, f := range []struct {
-		labels []string
-		data   [][]float32
-	}{{plain, data}, {againstCz, refd}} {
-		r, err := edf.Open(writeEDF(t, dir, fmt.Sprintf("r%d.edf", k), f.labels, f.data, int(g.Rate), nil))
-		if err != nil {
-			t.Fatal(err)
-		}
-		got, warns, err := detectFileRows(mustSettings(t), r, "r")
-		r.Close()
-		if err != nil {
-			t.Fatal(err)
-		}
-		if k == 1 && !strings.Contains(strings.Join(r.Header().Warnings, "\n"), "against Cz") {
-			t.Errorf("no warning that Cz is the reference: %q %q", r.Header().Warnings, warns)
-		}
-		rows[k] = got
+	rows[0], _, _ = detectWritten(t, dir, "r0.edf", plain, data, int(g.Rate))
+	var warns, hw []string
+	rows[1], warns, hw = detectWritten(t, dir, "r1.edf", againstCz, refd, int(g.Rate))
+	if !strings.Contains(strings.Join(hw, "\n"), "against Cz") {
+		t.Errorf("no warning that Cz is the reference: %q %q", hw, warns)
 	}
 	if len(rows[0]) < 10 {
 		t.Fatalf("only %d events", len(rows[0]))
 	}
-	same := 0
-	for _, a := range rows[0] {
-		for _, b := range rows[1] {
-			if a.OnsetS == b.OnsetS && a.PeakChannel == b.PeakChannel {
-				same++
-				break
-			}
-		}
-	}
+	same := sameEvents(rows[0], rows[1], 0)
 	// the two files differ only by 0.1 µV quantisation of other values
 	if len(rows[1]) < len(rows[0])*9/10 || same < len(rows[0])*9/10 {
 		t.Errorf("against Cz: %d events, %d of the %d of the plain file at the same time and channel", len(rows[1]), same, len(rows[0]))
@@ -256,33 +235,12 @@ func TestBipolarRecording(t *testing.T) {
 		t.Fatalf("the generator's montage has %d electrodes, the chain covers 19", len(plain))
 	}
 	var rows [2][]candidate.Row
-	for k, f := range []struct {
-		labels []string
-		data   [][]float32
-	}{{plain, data}, {chain, derived}} {
-		r, err := edf.Open(writeEDF(t, dir, fmt.Sprintf("r%d.edf", k), f.labels, f.data, int(g.Rate), nil))
-		if err != nil {
-			t.Fatal(err)
-		}
-		got, _, err := detectFileRows(mustSettings(t), r, "r")
-		r.Close()
-		if err != nil {
-			t.Fatal(err)
-		}
-		rows[k] = got
-	}
+	rows[0], _, _ = detectWritten(t, dir, "r0.edf", plain, data, int(g.Rate))
+	rows[1], _, _ = detectWritten(t, dir, "r1.edf", chain, derived, int(g.Rate))
 	if len(rows[0]) < 10 {
 		t.Fatalf("only %d events", len(rows[0]))
 	}
-	same := 0
-	for _, a := range rows[0] {
-		for _, b := range rows[1] {
-			if math.Abs(a.OnsetS-b.OnsetS) < 0.005 && a.PeakChannel == b.PeakChannel {
-				same++
-				break
-			}
-		}
-	}
+	same := sameEvents(rows[0], rows[1], 0.005)
 	t.Logf("referential %d events, bipolar %d, %d at the same time and channel", len(rows[0]), len(rows[1]), same)
 	// the files differ by the 0.1 µV quantisation of derivations and potentials
 	if len(rows[1]) < len(rows[0])*9/10 || same < len(rows[0])*9/10 {
@@ -297,15 +255,7 @@ func TestBipolarRecording(t *testing.T) {
 	// Without C3-Cz and Cz-C4 the two sides are unlinked groups, each
 	// relative to its own mean, and the midline (three electrodes) is left
 	// out: events are still found, criterion 6 is not measured.
-	r, err := edf.Open(writeEDF(t, dir, "unlinked.edf", chain[:18], derived[:18], int(g.Rate), nil))
-	if err != nil {
-		t.Fatal(err)
-	}
-	got, warns, err := detectFileRows(mustSettings(t), r, "r")
-	r.Close()
-	if err != nil {
-		t.Fatal(err)
-	}
+	got, warns, _ := detectWritten(t, dir, "unlinked.edf", chain[:18], derived[:18], int(g.Rate))
 	if !strings.Contains(strings.Join(warns, "\n"), "c6 not measured") {
 		t.Errorf("unlinked groups: no warning that c6 is not measured: %q", warns)
 	}
@@ -317,4 +267,34 @@ func TestBipolarRecording(t *testing.T) {
 			t.Fatalf("unlinked groups: c6 %.3f at %.3f s, want NaN", r.C6DipoleGOF, r.OnsetS)
 		}
 	}
+}
+
+// detectWritten writes labels and data as an EDF+ file in dir and detects
+// on it, returning the rows, the warnings and the header's warnings.
+func detectWritten(t *testing.T, dir, name string, labels []string, data [][]float32, rate int) ([]candidate.Row, []string, []string) {
+	t.Helper()
+	r, err := edf.Open(writeEDF(t, dir, name, labels, data, rate, nil))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer r.Close()
+	rows, warns, err := detectFileRows(mustSettings(t), r, "r")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return rows, warns, r.Header().Warnings
+}
+
+// sameEvents counts the rows of a with a row of b at the same peak channel
+// within tol seconds.
+func sameEvents(a, b []candidate.Row, tol float64) int {
+	n := 0
+	for _, x := range a {
+		if slices.ContainsFunc(b, func(y candidate.Row) bool {
+			return math.Abs(x.OnsetS-y.OnsetS) <= tol && x.PeakChannel == y.PeakChannel
+		}) {
+			n++
+		}
+	}
+	return n
 }
