@@ -2,11 +2,14 @@ package detect
 
 import (
 	"context"
+	"fmt"
 	"math"
 	"slices"
 	"testing"
 
+	"github.com/quorate-eeg/quorate/sampling/archive"
 	"github.com/quorate-eeg/quorate/sampling/candidate"
+	"github.com/quorate-eeg/quorate/sampling/edf"
 )
 
 // TestRateInvariance checks that the same waveforms sampled at a higher
@@ -66,5 +69,50 @@ func TestRateInvariance(t *testing.T) {
 				t.Errorf("%d Hz: event id %s at %.4f s, want %s (the sample index at the recording's rate)", 256*k, r.EventID, r.OnsetS, want)
 			}
 		}
+	}
+}
+
+// TestMeasureAtRate checks MeasureAt on an EDF file at 512 Hz against the
+// same recording at 256 Hz: the decimated view is used there too, so an
+// imported detector's events are measured as the finder's are, with the
+// same features (within the anti-aliasing filter's 0.03, as
+// TestRateInvariance), and event ids in the file's own samples.
+func TestMeasureAtRate(t *testing.T) {
+	in := inputOf(generated(t, 2, 2))
+	hi := upsampled(in, 2)
+	dir := t.TempDir()
+	var onsets []float64
+	for _, ev := range generated(t, 2, 2).Truth {
+		if ev.IsIED {
+			onsets = append(onsets, ev.Onset)
+		}
+	}
+	var rows [2][]candidate.Row
+	for k, x := range []Input{in, hi} {
+		r, err := edf.Open(writeEDF(t, dir, fmt.Sprintf("m%d.edf", k), x.Labels, x.Src.(memSource), int(x.Rate), nil))
+		if err != nil {
+			t.Fatal(err)
+		}
+		rows[k], _, err = MeasureAt(r, onsets, Options{Recordings: []archive.Recording{{RecordingID: "m"}}})
+		r.Close()
+		if err != nil {
+			t.Fatal(err)
+		}
+	}
+	if len(rows[0]) < 5 || len(rows[1]) != len(rows[0]) {
+		t.Fatalf("%d rows at 256 Hz, %d at 512 Hz, for %d onsets", len(rows[0]), len(rows[1]), len(onsets))
+	}
+	close := 0
+	for i, a := range rows[0] {
+		b := rows[1][i]
+		if math.Abs(a.OnsetS-b.OnsetS) <= 0.002 && math.Abs(a.C1Sharpness-b.C1Sharpness) <= 0.03 && math.Abs(a.C3Asymmetry-b.C3Asymmetry) <= 0.03 {
+			close++
+		}
+		if want := candidate.EventID("m", "import", int64(math.Round(b.OnsetS*512))); b.EventID != want {
+			t.Errorf("512 Hz: event id %s at %.4f s, want %s", b.EventID, b.OnsetS, want)
+		}
+	}
+	if close < len(rows[0])*9/10 {
+		t.Errorf("only %d of %d events measured alike at 256 and 512 Hz", close, len(rows[0]))
 	}
 }
