@@ -69,7 +69,6 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 	var sigs []int
 	var scale []float32
 	var ranges [][2]float64
-	var odd []string // channels whose physical dimension is no voltage unit
 	for i, s := range h.Signals {
 		if s.Kind != edf.EEG || !montage.IsElectrode(s.Name) {
 			continue
@@ -82,18 +81,13 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 			warns = append(warns, fmt.Sprintf("channel %s: unusable scaling (physical %g…%g, digital %d…%d): left out", s.Name, s.PhysMin, s.PhysMax, s.DigMin, s.DigMax))
 			continue
 		}
-		k, ok := s.Microvolts()
-		if !ok {
-			odd = append(odd, fmt.Sprintf("%s %q", s.Name, s.PhysDim))
-		}
+		k, _ := s.Microvolts()
 		labels = append(labels, s.Name)
 		sigs = append(sigs, i)
 		scale = append(scale, float32(k))
 		ranges = append(ranges, [2]float64{k * s.PhysMin, k * s.PhysMax})
 	}
-	if len(odd) > 0 {
-		warns = append(warns, fmt.Sprintf("physical dimension not uV, mV, V or nV on %d channel(s) (%s): read as µV", len(odd), strings.Join(odd[:min(3, len(odd))], ", ")+map[bool]string{true: ", …"}[len(odd) > 3]))
-	}
+	warns = append(warns, oddUnits(h, sigs)...)
 	if len(labels) == 0 {
 		return nil, append(warns, "no usable scalp EEG channels; recording skipped"), nil
 	}
@@ -101,9 +95,28 @@ func edfInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) 
 	return segmentInputs(r, recID, subject, labels, ranges, rate, spr, &edfSource{r: r, sigs: sigs, scale: scale}, warns)
 }
 
+// oddUnits warns once about the signals among sigs whose physical
+// dimension is no voltage unit edf.Signal.Microvolts knows, which are read
+// as µV.
+func oddUnits(h *edf.Header, sigs []int) []string {
+	var odd []string
+	for _, i := range sigs {
+		if s := h.Signals[i]; !unitKnown(s) {
+			odd = append(odd, fmt.Sprintf("%s %q", s.Name, s.PhysDim))
+		}
+	}
+	if len(odd) == 0 {
+		return nil
+	}
+	more := map[bool]string{true: ", …"}[len(odd) > 3]
+	return []string{fmt.Sprintf("physical dimension not uV, mV, V or nV on %d channel(s) (%s%s): read as µV", len(odd), strings.Join(odd[:min(3, len(odd))], ", "), more)}
+}
+
+func unitKnown(s edf.Signal) bool { _, ok := s.Microvolts(); return ok }
+
 // recoveredInputs is edfInputs for a recording stored as bipolar
 // derivations, over the electrodes the edf package recovered from them
-// (edf.Header.Recovered); its warning is the header's. A recovered
+// (edf.Header.Recovered), with a warning that says so. A recovered
 // electrode has no physical range of its own: its range is the largest
 // the derivations' ranges allow, so it never reads as saturated.
 func recoveredInputs(r *edf.Reader, recID, subject string) ([]Input, []string, error) {
@@ -125,7 +138,7 @@ func recoveredInputs(r *edf.Reader, recID, subject string) ([]Input, []string, e
 		ranges = append(ranges, [2]float64{-span, span})
 	}
 	warn := fmt.Sprintf("stored as bipolar derivations: read from the %d electrodes recovered from them (%s, …), each less the mean of its linked group", len(labels), strings.Join(labels[:min(3, len(labels))], ", "))
-	ins, warns, err := segmentInputs(r, recID, subject, labels, ranges, rate, int64(spr), &edfSource{r: r, sigs: sigs, scale: scale}, []string{warn})
+	ins, warns, err := segmentInputs(r, recID, subject, labels, ranges, rate, int64(spr), &edfSource{r: r, sigs: sigs, scale: scale}, append([]string{warn}, oddUnits(h, h.TermSignals())...))
 	for i := range ins {
 		ins[i].SplitMap = h.Recovered[len(h.Recovered)-1].Group > 0
 	}

@@ -52,8 +52,9 @@ const minGroup = 4
 // banana without a transverse derivation, or a midline chain) are each
 // relative to their own mean, which a warning says: their maps cannot be
 // compared across groups. Groups of fewer than minGroup electrodes are
-// left out. Only derivations at the most common sampling rate among them
-// take part.
+// left out. Only derivations at the most common sampling rate among them,
+// and with usable scaling (finite, non-zero gain), take part; the others
+// stay unknown signals.
 func recoverElectrodes(h *Header) {
 	for _, s := range h.Signals {
 		if s.Kind == EEG {
@@ -72,6 +73,9 @@ func recoverElectrodes(h *Header) {
 		}
 		if _, k := NormalizeLabel(b); k != EEG {
 			continue
+		}
+		if g := s.Gain(); math.IsNaN(g) || math.IsInf(g, 0) || g == 0 {
+			continue // unusable scaling would spread to every electrode of its group
 		}
 		edges = append(edges, derivation{i, a, b})
 		spr[s.SamplesPerRecord]++

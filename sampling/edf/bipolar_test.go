@@ -165,12 +165,44 @@ func TestRecoverOnlyBipolar(t *testing.T) {
 		h := &Header{}
 		for _, l := range labels {
 			n, k := NormalizeLabel(l)
-			h.Signals = append(h.Signals, Signal{Label: l, Name: n, Kind: k, SamplesPerRecord: 256})
+			h.Signals = append(h.Signals, Signal{Label: l, Name: n, Kind: k, SamplesPerRecord: 256, PhysMin: -1000, PhysMax: 1000, DigMin: -32768, DigMax: 32767})
 		}
 		commonReference(h)
 		recoverElectrodes(h)
 		if len(h.Recovered) != 0 {
 			t.Errorf("%v: recovered %d electrodes, want none", labels, len(h.Recovered))
+		}
+	}
+}
+
+// TestRecoverSkipsUnusableScaling checks that a derivation whose header
+// gives no usable gain (digital minimum equal to maximum) takes no part in
+// the recovery, which would otherwise spread its infinite values to every
+// electrode of its group; the loop of the left temporal and parasagittal
+// chains stays linked without it.
+func TestRecoverSkipsUnusableScaling(t *testing.T) {
+	h := &Header{}
+	for i, p := range doubleBanana[:8] {
+		l := "EEG " + p[0] + "-" + p[1]
+		n, k := NormalizeLabel(l)
+		s := Signal{Label: l, Name: n, Kind: k, SamplesPerRecord: 256, PhysMin: -1000, PhysMax: 1000, DigMin: -32768, DigMax: 32767}
+		if i == 2 {
+			s.DigMax = s.DigMin
+		}
+		h.Signals = append(h.Signals, s)
+	}
+	recoverElectrodes(h)
+	if len(h.Recovered) != 8 {
+		t.Fatalf("%d electrodes recovered, want the loop's 8", len(h.Recovered))
+	}
+	for _, e := range h.Recovered {
+		for _, tm := range e.Terms {
+			if tm.Signal == 2 {
+				t.Fatalf("%s is read from the derivation with unusable scaling", e.Name)
+			}
+			if math.IsNaN(tm.Weight) || math.IsInf(tm.Weight, 0) {
+				t.Fatalf("%s: weight %g", e.Name, tm.Weight)
+			}
 		}
 	}
 }
