@@ -156,41 +156,15 @@ func (b countBar) Add(k int) { *b.n += k; b.cancelBar.Add(k) }
 func TestCutReadsTheFileUnit(t *testing.T) {
 	dir := t.TempDir()
 	electrodes := []string{"Fp1", "Fp2", "C3", "C4", "O1", "O2"}
-	const rate, seconds = 256, 30
+	const seconds = 30
 	var recs []archive.Recording
 	for _, u := range []struct {
 		dim string
 		per float64 // units per µV
 	}{{"uV", 1}, {"mV", 1e-3}} {
-		sigs := make([]edf.Signal, len(electrodes))
-		for i, e := range electrodes {
-			sigs[i] = edf.Signal{Label: e, PhysDim: u.dim, PhysMin: -500 * u.per, PhysMax: 500 * u.per, DigMin: -32768, DigMax: 32767, SamplesPerRecord: rate}
-		}
-		f, err := os.Create(filepath.Join(dir, u.dim+".edf"))
-		if err != nil {
-			t.Fatal(err)
-		}
-		w, err := edf.NewWriter(f, edf.WriterHeader{Format: edf.EDFPlusC, Start: time.Date(2022, 3, 2, 9, 0, 0, 0, time.UTC), RecordDuration: 1, NumRecords: seconds, Signals: sigs})
-		if err != nil {
-			t.Fatal(err)
-		}
-		rec := make([][]float32, len(electrodes))
-		for r := range seconds {
-			for c := range electrodes {
-				rec[c] = make([]float32, rate)
-				for i := range rate {
-					tt := float64(r) + float64(i)/rate
-					rec[c][i] = float32(40 * math.Sin(2*math.Pi*(9+float64(c))*tt) * u.per)
-				}
-			}
-			if err := w.WriteRecord(rec); err != nil {
-				t.Fatal(err)
-			}
-		}
-		if err := w.Close(); err != nil {
-			t.Fatal(err)
-		}
-		f.Close()
+		writeRecording(t, filepath.Join(dir, u.dim+".edf"), electrodes, u.dim, u.per, seconds, func(c int, tt float64) float64 {
+			return 40 * math.Sin(2*math.Pi*(9+float64(c))*tt)
+		})
 		recs = append(recs, archive.Recording{RecordingID: u.dim, Path: u.dim + ".edf", EEGChannels: electrodes})
 	}
 	rows := []draw.Row{{EventID: "a", RecordingID: "uV", OnsetS: 15}, {EventID: "b", RecordingID: "mV", OnsetS: 15}}
@@ -222,46 +196,16 @@ func TestCutBipolarRecording(t *testing.T) {
 	dir := t.TempDir()
 	electrodes := []string{"C3", "F3", "Fp1", "O1", "P3"} // sorted, as recovered
 	chain := [][2]string{{"Fp1", "F3"}, {"F3", "C3"}, {"C3", "P3"}, {"P3", "O1"}}
-	const rate, seconds = 256, 30
+	const seconds = 30
 	v := func(c int, tt float64) float64 {
 		return 40*math.Sin(2*math.Pi*(9+float64(c))*tt) + 100*math.Sin(2*math.Pi*3*tt) // the second term: a reference's own activity
 	}
-	write := func(name string, labels []string, value func(j int, tt float64) float64) {
-		sigs := make([]edf.Signal, len(labels))
-		for i, l := range labels {
-			sigs[i] = edf.Signal{Label: l, PhysDim: "uV", PhysMin: -500, PhysMax: 500, DigMin: -32768, DigMax: 32767, SamplesPerRecord: rate}
-		}
-		f, err := os.Create(filepath.Join(dir, name))
-		if err != nil {
-			t.Fatal(err)
-		}
-		w, err := edf.NewWriter(f, edf.WriterHeader{Format: edf.EDFPlusC, Start: time.Date(2022, 3, 2, 9, 0, 0, 0, time.UTC), RecordDuration: 1, NumRecords: seconds, Signals: sigs})
-		if err != nil {
-			t.Fatal(err)
-		}
-		rec := make([][]float32, len(labels))
-		for r := range seconds {
-			for j := range labels {
-				rec[j] = make([]float32, rate)
-				for i := range rate {
-					rec[j][i] = float32(value(j, float64(r)+float64(i)/rate))
-				}
-			}
-			if err := w.WriteRecord(rec); err != nil {
-				t.Fatal(err)
-			}
-		}
-		if err := w.Close(); err != nil {
-			t.Fatal(err)
-		}
-		f.Close()
-	}
-	write("ref.edf", electrodes, func(j int, tt float64) float64 { return v(j, tt) })
+	writeRecording(t, filepath.Join(dir, "ref.edf"), electrodes, "uV", 1, seconds, v)
 	var labels []string
 	for _, p := range chain {
 		labels = append(labels, "EEG "+p[0]+"-"+p[1])
 	}
-	write("bip.edf", labels, func(j int, tt float64) float64 {
+	writeRecording(t, filepath.Join(dir, "bip.edf"), labels, "uV", 1, seconds, func(j int, tt float64) float64 {
 		return v(slices.Index(electrodes, chain[j][0]), tt) - v(slices.Index(electrodes, chain[j][1]), tt)
 	})
 	recs := []archive.Recording{{RecordingID: "ref", Path: "ref.edf", EEGChannels: electrodes}, {RecordingID: "bip", Path: "bip.edf", EEGChannels: electrodes}}
@@ -284,5 +228,41 @@ func TestCutBipolarRecording(t *testing.T) {
 				t.Fatalf("%s sample %d: %g µV from the bipolar file, %g less the mean from the referential one", electrodes[c], i, bip[c][i], float64(ref[c][i])-mean)
 			}
 		}
+	}
+}
+
+// writeRecording writes an EDF+C file of seconds one-second records at 256
+// Hz, one signal per label, in unit dim (per units per µV, range ±500 µV),
+// signal c at time tt holding value(c, tt) µV.
+func writeRecording(t *testing.T, path string, labels []string, dim string, per float64, seconds int, value func(c int, tt float64) float64) {
+	t.Helper()
+	const rate = 256
+	sigs := make([]edf.Signal, len(labels))
+	for i, l := range labels {
+		sigs[i] = edf.Signal{Label: l, PhysDim: dim, PhysMin: -500 * per, PhysMax: 500 * per, DigMin: -32768, DigMax: 32767, SamplesPerRecord: rate}
+	}
+	f, err := os.Create(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	w, err := edf.NewWriter(f, edf.WriterHeader{Format: edf.EDFPlusC, Start: time.Date(2022, 3, 2, 9, 0, 0, 0, time.UTC), RecordDuration: 1, NumRecords: int64(seconds), Signals: sigs})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rec := make([][]float32, len(labels))
+	for r := range seconds {
+		for c := range labels {
+			rec[c] = make([]float32, rate)
+			for i := range rate {
+				rec[c][i] = float32(value(c, float64(r)+float64(i)/rate) * per)
+			}
+		}
+		if err := w.WriteRecord(rec); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := w.Close(); err != nil {
+		t.Fatal(err)
 	}
 }
