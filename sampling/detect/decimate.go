@@ -2,7 +2,6 @@ package detect
 
 import (
 	"fmt"
-	"math"
 
 	"github.com/quorate-eeg/quorate/sampling/signal"
 )
@@ -10,16 +9,13 @@ import (
 // designRate is the sampling rate, Hz, the finder and the six features were
 // designed and validated at (FEATURES.md): the kernel widths, the
 // main-phase walk, the apex curvature and the flank levels all meet a
-// transient on a grid of samples, and the same waveform on a finer grid
+// transient on a grid of samples, and the same waveform on another grid
 // reads differently (TestRateInvariance; FEATURES.md, "Sampling rate and
-// grid"). A recording at a higher rate is therefore low-passed and
-// decimated by the integer factor that brings it nearest designRate
-// (decimation): 512, 1024 or 2048 Hz to 256 Hz, 500 or 1000 Hz to 250 Hz.
-// Nothing the features read lies above the conditioning filter's 70 Hz.
+// grid"). A recording at any other rate is read through a view at
+// designRate (atDesignRate): decimated when its rate is an integer multiple
+// (512, 1024, 2048 Hz), otherwise interpolated. Nothing the features read
+// lies above the conditioning filter's 70 Hz.
 const designRate = 256.0
-
-// decimation returns round(fs/designRate), at least 1.
-func decimation(fs float64) int { return max(1, int(math.Round(fs/designRate))) }
 
 // antiAliasOrder is the Butterworth order of the anti-aliasing low-pass,
 // applied forward and backward (so 16 in attenuation), at antiAliasFrac of

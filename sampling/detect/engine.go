@@ -34,8 +34,8 @@ type montages struct {
 // concurrent use.
 type engine struct {
 	s               *settings
-	in              *Input // the input, or its decimated view (newEngine)
-	step            int    // input samples per sample of in (decimation)
+	in              *Input  // the input, or its decimated view (newEngine)
+	step            float64 // input samples per sample of in (atDesignRate)
 	zp              *signal.ZeroPhase
 	margin          int
 	rate            float64
@@ -433,7 +433,7 @@ func (e *engine) row(w window, c cluster) candidate.Row {
 	}
 	slices.Sort(chans)
 	chans = slices.Compact(chans)
-	sample := in.FirstSample + (w.base+int64(ph.peak))*int64(e.step)
+	sample := in.FirstSample + int64(math.Round(float64(w.base+int64(ph.peak))*e.step))
 	lobe, side := montage.Region(elec)
 	row := candidate.Row{
 		EventID:            candidate.EventID(in.RecordingID, e.source, sample),
@@ -485,16 +485,16 @@ func Detect(ctx context.Context, in Input, o Options) ([]candidate.Row, []string
 	return rows, e.warnings, err
 }
 
-// newEngine returns an engine over in, or over its decimated view when in
-// is sampled well above designRate (decimation; no warning: it is the
-// normal reading of such a recording).
+// newEngine returns an engine over in, or over its view at designRate when
+// in is sampled at another rate (atDesignRate; no warning: it is the normal
+// reading of such a recording).
 func newEngine(s *settings, in *Input) *engine {
 	e := &engine{s: s, in: in, step: 1, source: "builtin", mons: map[string]*montages{}}
-	if m := decimation(in.Rate); m > 1 {
-		if d, err := decimated(*in, m); err == nil {
-			e.in, e.step = &d, m
+	if in.Rate != designRate {
+		if d, q, err := atDesignRate(*in); err == nil {
+			e.in, e.step = &d, q
 		} else {
-			e.warn("sampled at %g Hz and not decimated to about %g Hz, the rate the features were designed at: %v", in.Rate, designRate, err)
+			e.warn("sampled at %g Hz and not resampled to %g Hz, the rate the features were designed at: %v", in.Rate, designRate, err)
 		}
 	}
 	return e
