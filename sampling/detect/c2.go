@@ -86,16 +86,7 @@ func largerWave(t *trace, ph phase) phase {
 // trace.backgroundSpan), or NaN when no full segment fits.
 func dominantHz(t *trace, p int, span float64, sc *scratch) float64 {
 	n := int(math.Round(welchS * t.fs))
-	if sc.fftN != n {
-		sc.fftN, sc.fft, sc.rfft = n, fourier.NewFFT(n), newRFFT(n)
-		sc.win = make([]float64, n)
-		for i := range sc.win {
-			sc.win[i] = 0.5 - 0.5*math.Cos(2*math.Pi*float64(i)/float64(n))
-		}
-		sc.seg = make([]float64, n)
-		sc.psd = make([]float64, n/2+1)
-		sc.co = make([]complex128, n/2+1)
-	}
+	sc.spectrumOf(n)
 	// only the bins of the search band are read
 	df := t.fs / float64(n)
 	k0 := int(math.Ceil(bgLowHz / df))
@@ -112,11 +103,7 @@ func dominantHz(t *trace, p int, span float64, sc *scratch) float64 {
 			for i, v := range t.x[s : s+n] {
 				sc.seg[i] = (float64(v) - mean) * sc.win[i]
 			}
-			if sc.rfft != nil {
-				sc.rfft.coefficients(sc.co, sc.seg, k0, k1)
-			} else {
-				sc.co = sc.fft.Coefficients(sc.co, sc.seg)
-			}
+			sc.coefficients(k0, k1)
 			for k, c := range sc.co[k0 : k1+1] {
 				sc.psd[k0+k] += real(c)*real(c) + imag(c)*imag(c)
 			}
@@ -172,4 +159,29 @@ func waveDuration(t *trace, ph phase, sc *scratch) float64 {
 	level := returnFrac * top
 	n := int(math.Round(returnMaxS * t.fs))
 	return max(d, levelWidth(t, ph, b, -1, n, level)+levelWidth(t, ph, b, +1, n, level))
+}
+
+// spectrumOf readies the scratch's Welch buffers (Hann window, segment,
+// transform) for segments of n samples.
+func (sc *scratch) spectrumOf(n int) {
+	if sc.fftN == n {
+		return
+	}
+	sc.fftN, sc.fft, sc.rfft = n, fourier.NewFFT(n), newRFFT(n)
+	sc.win = make([]float64, n)
+	for i := range sc.win {
+		sc.win[i] = 0.5 - 0.5*math.Cos(2*math.Pi*float64(i)/float64(n))
+	}
+	sc.seg = make([]float64, n)
+	sc.psd = make([]float64, n/2+1)
+	sc.co = make([]complex128, n/2+1)
+}
+
+// coefficients writes the transform of sc.seg to sc.co, at least bins k0 … k1.
+func (sc *scratch) coefficients(k0, k1 int) {
+	if sc.rfft != nil {
+		sc.rfft.coefficients(sc.co, sc.seg, k0, k1)
+	} else {
+		sc.co = sc.fft.Coefficients(sc.co, sc.seg)
+	}
 }

@@ -39,6 +39,8 @@ type engine struct {
 	zp              *signal.ZeroPhase
 	margin          int
 	rate            float64
+	notchHz         []float64 // the notches (notches), once notchKnown
+	notchKnown      bool
 	source          string // Row.Source of the rows made
 	mons            map[string]*montages
 	warnings        []string
@@ -68,7 +70,8 @@ func (e *engine) warn(format string, args ...any) {
 
 // setRate designs the conditioning filter for a sampling rate: Butterworth
 // band-pass of order 2 per edge, the upper edge capped at 0.45 of the rate,
-// followed by the mains notch (q = 30) when it lies below Nyquist.
+// followed by a notch (q = 30) at the mains frequency asked for and at any
+// other mains line the recording carries (notches), below Nyquist.
 func (e *engine) setRate(fs float64) error {
 	if e.zp != nil && e.rate == fs {
 		return nil
@@ -82,12 +85,17 @@ func (e *engine) setRate(fs float64) error {
 		return err
 	}
 	sos := bp
-	if e.s.notch > 0 && e.s.notch < 0.5*fs {
-		n, err := signal.Notch(e.s.notch, 30, fs)
-		if err != nil {
-			return err
+	if !e.notchKnown {
+		e.notchHz, e.notchKnown = e.notches(), true
+	}
+	for _, f := range e.notchHz {
+		if f < 0.5*fs {
+			n, err := signal.Notch(f, 30, fs)
+			if err != nil {
+				return err
+			}
+			sos = signal.Cascade(sos, n)
 		}
-		sos = signal.Cascade(bp, n)
 	}
 	e.zp = signal.NewZeroPhase(sos)
 	e.margin = signal.Margin(sos, filterTol)

@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/dsp/fourier"
 	"math"
 	"math/cmplx"
+	"math/rand/v2"
 	"os"
 	"slices"
 	"sort"
@@ -234,7 +235,18 @@ func TestCandidateQuality(t *testing.T) {
 		if k, err := strconv.Atoi(os.Getenv("QUORATE_DIAG_DECIMATE")); err == nil && k > 1 {
 			in = decimatedIn(t, in, k)
 		}
-		rows, _, err := Detect(context.Background(), in, Options{})
+		if v := strings.Fields(os.Getenv("QUORATE_DIAG_MAINS")); len(v) == 2 {
+			// mains interference: "Hz µV", amplitude 0.5–1.5 × µV per
+			// channel (electrode impedances differ), common phase
+			hz, _ := strconv.ParseFloat(v[0], 64)
+			uv, _ := strconv.ParseFloat(v[1], 64)
+			in = withMains(in, hz, uv, seed)
+		}
+		notch := 0.0
+		if v, err := strconv.ParseFloat(os.Getenv("QUORATE_DIAG_NOTCH"), 64); err == nil {
+			notch = v
+		}
+		rows, _, err := Detect(context.Background(), in, Options{NotchHz: notch})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -440,6 +452,24 @@ func shifted(in Input, d float64) Input {
 		out[c] = make([]float32, n)
 		for i, v := range y {
 			out[c][i] = float32(v / float64(n))
+		}
+	}
+	in.Src = out
+	return in
+}
+
+// withMains is in with a sinusoid of hz Hz added to every channel, its
+// amplitude 0.5–1.5 × uv drawn per channel from seed, in phase across
+// channels.
+func withMains(in Input, hz, uv float64, seed uint64) Input {
+	src := in.Src.(memSource)
+	r := rand.New(rand.NewPCG(seed, 60))
+	out := make(memSource, len(src))
+	for c, x := range src {
+		a := uv * (0.5 + r.Float64())
+		out[c] = make([]float32, len(x))
+		for i, v := range x {
+			out[c][i] = v + float32(a*math.Sin(2*math.Pi*hz*float64(i)/in.Rate))
 		}
 	}
 	in.Src = out

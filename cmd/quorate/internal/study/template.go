@@ -32,7 +32,7 @@ archive:
 signal:
   montage: common-average     # referential | common-average | longitudinal-bipolar | transverse-bipolar
   bandpass_hz: [0.5, 70]      # Butterworth band-pass, order 2 per edge, applied forward and backward
-  notch_hz: 50                # 50 or 60 (mains frequency of the recording site); 0 for none
+  notch_hz: 50                # 50 or 60 (mains frequency of the recording site); 0 for none; detection notches a recording showing only the other line there instead, with a warning
 
 detect:
   threshold_mad: 4.5          # transient response, in robust background scales (median absolute deviation)
