@@ -34,7 +34,7 @@ type montages struct {
 // concurrent use.
 type engine struct {
 	s               *settings
-	in              *Input  // the input, or its decimated view (newEngine)
+	in              *Input  // the input, or its view at designRate (newEngine)
 	step            float64 // input samples per sample of in (atDesignRate)
 	zp              *signal.ZeroPhase
 	margin          int
@@ -70,8 +70,8 @@ func (e *engine) warn(format string, args ...any) {
 
 // setRate designs the conditioning filter for a sampling rate: Butterworth
 // band-pass of order 2 per edge, the upper edge capped at 0.45 of the rate,
-// followed by a notch (q = 30) at the mains frequency asked for and at any
-// other mains line the recording carries (notches), below Nyquist.
+// followed by a notch (q = 30) at each mains frequency notches chooses for
+// the recording, below Nyquist.
 func (e *engine) setRate(fs float64) error {
 	if e.zp != nil && e.rate == fs {
 		return nil

@@ -27,7 +27,7 @@ const (
 // channels it stands out on. Interference reaches the EEG through the
 // electrodes' impedances, so it may be on a few channels only; a notch,
 // applied to every channel, costs the others nothing the features read
-// (its −3 dB band is 2 Hz wide at q = 30). EEG has no narrow line of its
+// (its −3 dB band is f/q, 1.7–2 Hz wide at q = 30). EEG has no narrow line of its
 // own between 44 and 66 Hz, so ten times the neighbouring bins is
 // interference: lines of 2 µV are found over the generated backgrounds,
 // and on ten recordings of each generator no channel without a line

@@ -14,12 +14,25 @@ import (
 // withLine is in with a sinusoid of hz Hz and uv µV amplitude added to the
 // channels chs: mains interference through those electrodes' impedances.
 func withLine(in Input, hz, uv float64, chs ...int) Input {
+	amp := make([]float64, len(in.Labels))
+	for _, c := range chs {
+		amp[c] = uv
+	}
+	return withSinusoid(in, hz, 0.3, amp)
+}
+
+// withSinusoid is in with amp[c]·sin(2π·hz·t + phase) added to each
+// channel c whose amp is not zero; the other channels are shared.
+func withSinusoid(in Input, hz, phase float64, amp []float64) Input {
 	src := in.Src.(memSource)
 	out := slices.Clone(src)
-	for _, c := range chs {
+	for c, a := range amp {
+		if a == 0 {
+			continue
+		}
 		out[c] = make([]float32, len(src[c]))
 		for i, v := range src[c] {
-			out[c][i] = v + float32(uv*math.Sin(2*math.Pi*hz*float64(i)/in.Rate+0.3))
+			out[c][i] = v + float32(a*math.Sin(2*math.Pi*hz*float64(i)/in.Rate+phase))
 		}
 	}
 	in.Src = out

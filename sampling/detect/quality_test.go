@@ -462,16 +462,10 @@ func shifted(in Input, d float64) Input {
 // amplitude 0.5–1.5 × uv drawn per channel from seed, in phase across
 // channels.
 func withMains(in Input, hz, uv float64, seed uint64) Input {
-	src := in.Src.(memSource)
 	r := rand.New(rand.NewPCG(seed, 60))
-	out := make(memSource, len(src))
-	for c, x := range src {
-		a := uv * (0.5 + r.Float64())
-		out[c] = make([]float32, len(x))
-		for i, v := range x {
-			out[c][i] = v + float32(a*math.Sin(2*math.Pi*hz*float64(i)/in.Rate))
-		}
+	amp := make([]float64, len(in.Labels))
+	for c := range amp {
+		amp[c] = uv * (0.5 + r.Float64())
 	}
-	in.Src = out
-	return in
+	return withSinusoid(in, hz, 0, amp)
 }
