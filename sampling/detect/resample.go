@@ -3,6 +3,7 @@ package detect
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"github.com/quorate-eeg/quorate/sampling/signal"
 )
@@ -115,8 +116,9 @@ func (s *interpSource) ReadAt(ch int, start int64, dst []float32) error {
 func (s *interpSource) weigh(start int64, n int, lo, hi int64) {
 	const a = resampleA
 	s.wStart, s.wLen, s.lo = start, n, lo
-	s.w = append(s.w[:0], make([]float64, 2*a*n)...)
-	s.first = append(s.first[:0], make([]int64, n)...)
+	s.w = slices.Grow(s.w[:0], 2*a*n)[:2*a*n]
+	clear(s.w)
+	s.first = slices.Grow(s.first[:0], n)[:n]
 	var cs, sn [2 * a]float64
 	for k := range 2 * a {
 		cs[k], sn[k] = math.Cos(float64(k-a+1)*math.Pi/a), math.Sin(float64(k-a+1)*math.Pi/a)
